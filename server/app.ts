@@ -1,0 +1,79 @@
+import { existsSync } from 'node:fs'
+import path from 'node:path'
+import express, { type Express } from 'express'
+import cookieParser from 'cookie-parser'
+import helmet from 'helmet'
+import { pinoHttp } from 'pino-http'
+import { randomUUID } from 'node:crypto'
+import type { AppContext } from './context.js'
+import { apiNotFoundHandler, errorHandler } from './middleware/errorHandler.js'
+import { createPassport, optionalAuth, requireAuth } from './middleware/authenticate.js'
+import { authRoutes, meRoutes } from './features/auth/auth.routes.js'
+import { workspacesRoutes } from './features/workspaces/workspaces.routes.js'
+import { invitesRoutes } from './features/invites/invites.routes.js'
+import { devOutboxRoutes, systemRoutes } from './features/system/system.routes.js'
+
+/** Builds the HTTP app (API + built client) without listening, so tests can run it in-process. */
+export function createApp(context: AppContext): Express {
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', 'loopback')
+
+  app.use(
+    pinoHttp({
+      logger: context.logger,
+      genReqId: (request, response) => {
+        const incoming = request.headers['x-request-id']
+        const id = typeof incoming === 'string' && incoming.length <= 100 ? incoming : randomUUID()
+        response.setHeader('x-request-id', id)
+        return id
+      },
+      autoLogging: { ignore: (request) => !request.url?.startsWith('/api/') },
+      // One compact line per request; headers (tokens, cookies) are never logged.
+      serializers: {
+        req: (request: { id: unknown; method: string; url: string }) => ({ id: request.id, method: request.method, url: request.url }),
+        res: (response: { statusCode: number }) => ({ statusCode: response.statusCode }),
+      },
+    }),
+  )
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          // Quasar sets inline style attributes; scripts stay self-only.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          upgradeInsecureRequests: null,
+        },
+      },
+      strictTransportSecurity: context.config.appUrl.startsWith('https://'),
+    }),
+  )
+  app.use(express.json({ limit: '1mb' }))
+  app.use(cookieParser())
+
+  const passport = createPassport(context.db, context.config.jwtSecret)
+  const signedIn = requireAuth(passport)
+
+  const api = express.Router()
+  api.use(systemRoutes(context))
+  api.use('/auth', authRoutes(context))
+  api.use('/me', meRoutes(context, signedIn))
+  api.use('/workspaces', workspacesRoutes(context, signedIn))
+  api.use('/invites', invitesRoutes(context, optionalAuth(passport)))
+  api.use('/dev', devOutboxRoutes(context))
+  api.use(apiNotFoundHandler)
+  app.use('/api', api)
+
+  const clientDist = path.resolve(context.config.clientDist)
+  if (existsSync(path.join(clientDist, 'index.html'))) {
+    app.use(express.static(clientDist, { index: false, maxAge: '1h' }))
+    // Client-side routes (/w/…, /invite/…) all load the single page.
+    app.get('/{*path}', (_request, response) => response.sendFile(path.join(clientDist, 'index.html')))
+  }
+
+  app.use(errorHandler)
+  return app
+}

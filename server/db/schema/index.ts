@@ -1,0 +1,2 @@
+export * from './accounts.js'
+export * from './mail.js'

@@ -1,0 +1,9 @@
+/** Names of the pg-boss queues. Later work (nest runs, comparisons) adds its own here. */
+export const queueNames = {
+  mailDeliver: 'mail-deliver',
+  mailSweep: 'mail-sweep',
+} as const
+
+export interface MailDeliverJob {
+  mailId: string
+}

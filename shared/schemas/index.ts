@@ -1,0 +1,5 @@
+export * from './error.js'
+export * from './auth.js'
+export * from './workspaces.js'
+export * from './outbox.js'
+export * from './config.js'

@@ -1,0 +1,29 @@
+import { mkdtempSync, mkdirSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import path from 'node:path'
+import { chromium, type BrowserContext } from 'playwright-core'
+
+export const artifactsDir = path.resolve('tests/e2e/artifacts')
+
+/**
+ * Debian's Chromium, headless, in a fresh profile. The networking flags keep it from calling out:
+ * this machine reaches nothing but package registries.
+ */
+export async function launchBrowser(): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+  const profileDir = mkdtempSync(path.join(tmpdir(), 'sheetsmith-e2e-'))
+  mkdirSync(artifactsDir, { recursive: true })
+  const context = await chromium.launchPersistentContext(profileDir, {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    viewport: { width: 1280, height: 800 },
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+  })
+  context.setDefaultTimeout(15_000)
+  return {
+    context,
+    close: async () => {
+      await context.close()
+      rmSync(profileDir, { recursive: true, force: true })
+    },
+  }
+}

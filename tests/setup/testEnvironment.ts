@@ -1,0 +1,14 @@
+// Defaults for the test server. `npm test` sets DATABASE_URL to its throw-away database; nothing here touches demo data.
+export function applyTestEnvironment(environment: NodeJS.ProcessEnv = process.env) {
+  if (!environment.DATABASE_URL || !/_test\b/.test(environment.DATABASE_URL)) {
+    throw new Error('Tests need DATABASE_URL pointing at a throw-away *_test database. Run them with `npm test`.')
+  }
+  environment.NODE_ENV = 'test'
+  environment.PORT ??= '5183'
+  environment.MAIL_CATCHER_PORT ??= '2526'
+  environment.APP_URL ??= `http://127.0.0.1:${environment.PORT}`
+  // The API tests sign in many times from one address; the limiter itself is tested with its own small app.
+  environment.AUTH_RATE_LIMIT ??= '100000'
+  environment.SMTP_URL = ''
+  delete environment.SMTP_URL
+}

@@ -1,0 +1,23 @@
+import { fileURLToPath, URL } from 'node:url'
+import { defineConfig } from 'vitest/config'
+
+export default defineConfig({
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./src', import.meta.url)),
+      '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+    },
+  },
+  test: {
+    include: ['tests/**/*.test.ts'],
+    // One real server (API + built client + mail catcher + job workers) for the whole run, on the test database.
+    globalSetup: ['tests/setup/globalServer.ts'],
+    setupFiles: ['tests/setup/workerEnvironment.ts'],
+    environment: 'node',
+    pool: 'forks',
+    maxWorkers: 2,
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
+    reporters: ['default'],
+  },
+})
