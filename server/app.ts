@@ -10,6 +10,7 @@ import { apiNotFoundHandler, errorHandler } from './middleware/errorHandler.js'
 import { createPassport, optionalAuth, requireAuth } from './middleware/authenticate.js'
 import { authRoutes, meRoutes } from './features/auth/auth.routes.js'
 import { workspacesRoutes } from './features/workspaces/workspaces.routes.js'
+import { designsRoutes } from './features/designs/designs.routes.js'
 import { invitesRoutes } from './features/invites/invites.routes.js'
 import { devOutboxRoutes, systemRoutes } from './features/system/system.routes.js'
 
@@ -61,6 +62,7 @@ export function createApp(context: AppContext): Express {
   api.use(systemRoutes(context))
   api.use('/auth', authRoutes(context))
   api.use('/me', meRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/designs', designsRoutes(context, signedIn))
   api.use('/workspaces', workspacesRoutes(context, signedIn))
   api.use('/invites', invitesRoutes(context, optionalAuth(passport)))
   api.use('/dev', devOutboxRoutes(context))

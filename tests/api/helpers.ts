@@ -65,7 +65,7 @@ export function tokenFromLink(link: string): string {
 }
 
 /** Invites `email` into the owner's workspace and accepts as a new account; returns the member's session. */
-export async function addMember(owner: SignedUpUser, role: 'owner' | 'maker' | 'viewer', label = role) {
+export async function addMember(owner: SignedUpUser, role: 'owner' | 'maker' | 'viewer', label: string = role) {
   const email = uniqueEmail(label)
   const invite = await api().post(`/api/workspaces/${owner.workspace.id}/invites`).set(bearer(owner.accessToken)).send({ email, role })
   if (invite.status !== 201) throw new Error(`invite failed: ${invite.status} ${JSON.stringify(invite.body)}`)

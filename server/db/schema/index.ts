@@ -1,2 +1,3 @@
 export * from './accounts.js'
 export * from './mail.js'
+export * from './designs.js'
