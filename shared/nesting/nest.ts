@@ -1,0 +1,290 @@
+import ClipperLib from 'clipper-lib'
+import { bestPositionOnSheet, NoFitCache, type Candidate, type Container, type Instance, type Obstacle, type PlacedPart } from './construct.js'
+import { chooseScale, orient, toIntPath } from './intGeometry.js'
+import { innerFitRegion } from './noFitRegion.js'
+import { createRandom } from './random.js'
+import { buildVariants, type Variant } from './variants.js'
+import type { NestOptions, NestProblem, NestResult, Placement, RingPoints } from './types.js'
+
+export class NestInputError extends Error {}
+
+function ringArea(ring: RingPoints): number {
+  let twice = 0
+  for (let index = 0, previous = ring.length - 1; index < ring.length; previous = index++) {
+    twice += (ring[previous]![0] - ring[index]![0]) * (ring[previous]![1] + ring[index]![1])
+  }
+  return Math.abs(twice / 2)
+}
+
+function validate(problem: NestProblem) {
+  if (problem.items.length === 0) throw new NestInputError('Add at least one item to nest')
+  for (const item of problem.items) {
+    if (!Number.isInteger(item.quantity) || item.quantity < 0) throw new NestInputError(`Item ${item.id}: quantity must be a whole number of 0 or more`)
+    if (item.outline.length < 3) throw new NestInputError(`Item ${item.id}: the outline needs at least 3 points`)
+    for (const [x, y] of [item.outline, ...(item.holes ?? [])].flat()) {
+      if (!Number.isFinite(x) || !Number.isFinite(y)) throw new NestInputError(`Item ${item.id}: every coordinate must be a finite number`)
+    }
+    if (ringArea(item.outline) <= 0) throw new NestInputError(`Item ${item.id}: the outline has no area`)
+    if (item.rotationsDeg.some((angle) => !Number.isFinite(angle))) throw new NestInputError(`Item ${item.id}: rotations must be numbers of degrees`)
+  }
+  const stock = problem.stock
+  if (stock.kind === 'roll' && !(stock.width > 0)) throw new NestInputError('The roll width must be above 0')
+  if (stock.kind === 'sheets' && !(stock.width > 0 && stock.height > 0)) throw new NestInputError('The sheet width and height must be above 0')
+  if (stock.kind === 'polygon' && (stock.outline.length < 3 || ringArea(stock.outline) <= 0)) throw new NestInputError('The stock outline has no area')
+  if ((problem.spacing ?? 0) < 0 || (problem.margin ?? 0) < 0) throw new NestInputError('Spacing and margin cannot be negative')
+}
+
+interface Evaluation {
+  placed: PlacedPart[]
+  unplaced: Instance[]
+  /** Lower is better: unplaced first, then sheets, then length. */
+  cost: number
+  length: number
+  sheetCount: number
+}
+
+/**
+ * True-shape nesting: bottom-left-fill over no-fit regions (construction), improved by a seeded local search over
+ * the order and orientation of the pieces, within a time or evaluation budget. Pure and deterministic for a seed
+ * and an evaluation count; callers verify the result independently (`verifyLayout`).
+ */
+export function nest(problem: NestProblem, options: NestOptions = {}): NestResult {
+  validate(problem)
+  const started = Date.now()
+  const seed = options.seed ?? 1
+  const random = createRandom(seed)
+  const margin = problem.margin ?? 0
+  const spacing = problem.spacing ?? 0
+  const stock = problem.stock
+
+  const totalWidth = problem.items.reduce((sum, item) => {
+    const xs = item.outline.map(([x]) => x)
+    const ys = item.outline.map(([, y]) => y)
+    return sum + Math.max(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys)) * Math.max(item.quantity, 1)
+  }, 0)
+  const stockExtent =
+    stock.kind === 'roll'
+      ? Math.max(stock.width, Math.min(stock.maxLength ?? Infinity, totalWidth + 2 * margin))
+      : stock.kind === 'sheets'
+        ? Math.max(stock.width, stock.height)
+        : Math.max(...stock.outline.flat().map(Math.abs))
+  const scale = chooseScale(stockExtent * 1.5 + spacing)
+  const safety = 1
+  const variants = buildVariants(problem.items, {
+    scale,
+    halfSpacing: Math.round((spacing / 2) * scale),
+    safety,
+    simplify: Math.round((problem.simplifyTolerance ?? 0) * scale),
+  })
+  const cache = new NoFitCache(safety)
+
+  const marginInt = Math.round(margin * scale)
+  let container: Container
+  if (stock.kind === 'roll') {
+    container = { kind: 'strip', minX: marginInt, minY: marginInt, maxX: Math.round((stock.maxLength ?? Infinity) * scale) - marginInt, maxY: Math.round(stock.width * scale) - marginInt, maxSheets: 1 }
+  } else if (stock.kind === 'sheets') {
+    container = { kind: 'sheet', minX: marginInt, minY: marginInt, maxX: Math.round(stock.width * scale) - marginInt, maxY: Math.round(stock.height * scale) - marginInt, maxSheets: stock.maxSheets ?? 10_000 }
+  } else {
+    const outer = orient(toIntPath(stock.outline, scale), true)
+    const holes = (stock.holes ?? []).map((hole) => orient(toIntPath(hole, scale), false))
+    const offset = new ClipperLib.ClipperOffset(2, 0.25)
+    offset.AddPaths([outer, ...holes], ClipperLib.JoinType.jtMiter, ClipperLib.EndType.etClosedPolygon)
+    const insetPaths: { X: number; Y: number }[][] = []
+    offset.Execute(insetPaths, -marginInt)
+    const region = { outer: insetPaths.find((path) => ClipperLib.Clipper.Area(path) > 0) ?? [], holes: insetPaths.filter((path) => ClipperLib.Clipper.Area(path) < 0) }
+    const regions = new Map<number, ReturnType<typeof innerFitRegion>>()
+    container = {
+      kind: 'region',
+      minX: 0,
+      minY: 0,
+      maxX: 0,
+      maxY: 0,
+      maxSheets: 1,
+      regionFor: (variant) => {
+        let fit = regions.get(variant.id)
+        if (!fit) {
+          fit = region.outer.length ? innerFitRegion(region, variant.fitShape, safety) : []
+          regions.set(variant.id, fit)
+        }
+        return fit
+      },
+    }
+  }
+  const obstacles: Obstacle[] = (problem.excludedZones ?? []).map((zone, index) => ({ key: `zone${index}`, shape: { outer: orient(toIntPath(zone, scale), true), holes: [] } }))
+
+  // Largest first is the classic good start (Burke et al. 2006); ties keep the input order.
+  const itemArea = problem.items.map((item) => ringArea(item.outline) - (item.holes ?? []).reduce((sum, hole) => sum + ringArea(hole), 0))
+  const instances: Instance[] = []
+  problem.items.forEach((item, itemIndex) => {
+    for (let copy = 0; copy < item.quantity; copy++) instances.push({ itemIndex, copy })
+  })
+  const initialOrder = instances.map((_, index) => index).sort((left, right) => itemArea[instances[right]!.itemIndex]! - itemArea[instances[left]!.itemIndex]! || left - right)
+  const pieceArea = instances.reduce((sum, instance) => sum + itemArea[instance.itemIndex]!, 0)
+
+  /** Which variants of an instance to try: all when there are few, else the preferred one and its quarter turns. */
+  const variantChoices = (instance: Instance, preferred: number): Variant[] => {
+    const all = variants[instance.itemIndex]!
+    if (all.length <= 8) return all
+    const quarter = Math.max(1, Math.round(all.length / 4))
+    const picked = [0, quarter, 2 * quarter, 3 * quarter].map((step) => all[(preferred + step) % all.length]!)
+    return [...new Set(picked)]
+  }
+
+  const rightEdgeOf = (part: PlacedPart) => part.x + part.variant.fitBounds.maxX
+
+  /** Places instances from `fromStep` on, keeping the earlier placements of `previous`. */
+  const construct = (order: number[], preferences: number[], previous: Evaluation | undefined, fromStep: number): Evaluation => {
+    const placed: PlacedPart[] = previous ? previous.placed.slice(0, countPlacedBefore(previous, order, fromStep)) : []
+    const unplaced: Instance[] = previous ? previous.unplaced.filter((instance) => order.indexOf(instances.indexOf(instance)) < fromStep) : []
+    let sheetCount = placed.reduce((max, part) => Math.max(max, part.sheet + 1), 0)
+    let stripLength = placed.reduce((max, part) => Math.max(max, rightEdgeOf(part)), container.minX)
+    for (let step = fromStep; step < order.length; step++) {
+      const instanceIndex = order[step]!
+      const instance = instances[instanceIndex]!
+      let chosen: Candidate | undefined
+      const sheetsToTry = container.kind === 'sheet' ? Math.min(sheetCount + 1, container.maxSheets) : 1
+      for (let sheet = 0; sheet < sheetsToTry && !chosen; sheet++) {
+        for (const variant of variantChoices(instance, preferences[instanceIndex]!)) {
+          const candidate = bestPositionOnSheet(variant, sheet, placed, obstacles, container, cache, stripLength + variant.fitBounds.maxX + 2)
+          if (candidate && (!chosen || candidate.score < chosen.score)) chosen = candidate
+        }
+      }
+      if (!chosen) {
+        unplaced.push(instance)
+        continue
+      }
+      const part: PlacedPart = { instance, variant: chosen.variant, sheet: chosen.sheet, x: chosen.x, y: chosen.y }
+      placed.push(part)
+      sheetCount = Math.max(sheetCount, chosen.sheet + 1)
+      stripLength = Math.max(stripLength, rightEdgeOf(part))
+    }
+    const lastSheet = sheetCount - 1
+    // The real outline's bounding box starts at the reference point, so its right edge is x + width.
+    const length = placed.filter((part) => part.sheet === lastSheet).reduce((max, part) => Math.max(max, part.x + part.variant.widthReal * scale), 0)
+    const cost = unplaced.length * 1e15 + (container.kind === 'sheet' ? lastSheet * 1e12 : 0) + length
+    return { placed, unplaced, cost, length, sheetCount }
+  }
+
+  /** How many of `previous.placed` were placed by steps before `fromStep` (their order is unchanged). */
+  function countPlacedBefore(previous: Evaluation, order: number[], fromStep: number): number {
+    const before = new Set(order.slice(0, fromStep))
+    let count = 0
+    for (const part of previous.placed) {
+      if (!before.has(instances.indexOf(part.instance))) break
+      count++
+    }
+    return count
+  }
+
+  let evaluations = 0
+  let order = [...initialOrder]
+  let preferences = instances.map(() => 0)
+  let current = construct(order, preferences, undefined, 0)
+  evaluations++
+  const firstFeasibleMs = Date.now() - started
+  let best = { evaluation: current, order: [...order], preferences: [...preferences] }
+
+  const timeBudgetMs = options.timeBudgetMs ?? (options.maxEvaluations ? Infinity : 10_000)
+  const maxEvaluations = options.maxEvaluations ?? Infinity
+  const report = () =>
+    options.onProgress?.({
+      evaluations,
+      elapsedMs: Date.now() - started,
+      bestUtilisation: utilisationOf(best.evaluation),
+      bestLength: best.evaluation.length / scale + (container.kind === 'sheet' ? 0 : margin),
+      bestSheets: best.evaluation.sheetCount,
+      placedCount: best.evaluation.placed.length,
+    })
+  const utilisationOf = (evaluation: Evaluation) => {
+    const used = usedStockArea(evaluation)
+    return used > 0 ? placedArea(evaluation) / used : 0
+  }
+  const placedArea = (evaluation: Evaluation) => evaluation.placed.reduce((sum, part) => sum + itemArea[part.instance.itemIndex]!, 0)
+  const usedStockArea = (evaluation: Evaluation) => {
+    if (stock.kind === 'roll') return stock.width * (evaluation.length / scale + margin)
+    if (stock.kind === 'sheets') return stock.width * stock.height * Math.max(0, evaluation.sheetCount - 1) + stock.height * (evaluation.length / scale + margin)
+    return ringArea(stock.outline) - (stock.holes ?? []).reduce((sum, hole) => sum + ringArea(hole), 0)
+  }
+  report()
+
+  // Local search: swap two pieces in the order or turn one, rebuild from the first changed step, keep what is
+  // not worse (sideways moves cross plateaus), and now and then accept a slightly worse layout (annealing).
+  let lastReport = Date.now()
+  const n = order.length
+  while (n > 1 && evaluations < maxEvaluations && Date.now() - started < timeBudgetMs && !options.shouldStop?.()) {
+    const nextOrder = [...order]
+    const nextPreferences = [...preferences]
+    let fromStep: number
+    const move = random()
+    if (move < 0.7 || variants.every((list) => list.length === 1)) {
+      const first = Math.floor(random() * n)
+      const distance = 1 + Math.floor(random() * Math.min(n - 1, Math.max(2, Math.floor(n / 4))))
+      const second = (first + distance) % n
+      ;[nextOrder[first], nextOrder[second]] = [nextOrder[second]!, nextOrder[first]!]
+      fromStep = Math.min(first, second)
+      if (nextOrder[first] === order[first] && nextOrder[second] === order[second]) continue
+    } else {
+      const step = Math.floor(random() * n)
+      const instanceIndex = nextOrder[step]!
+      nextPreferences[instanceIndex] = (nextPreferences[instanceIndex]! + 1 + Math.floor(random() * 3)) % Math.max(1, variants[instances[instanceIndex]!.itemIndex]!.length)
+      fromStep = step
+      if (variants[instances[instanceIndex]!.itemIndex]!.length <= 8) {
+        // All variants are tried anyway: move the piece earlier instead, which changes the layout.
+        const target = Math.floor(random() * (step + 1))
+        nextOrder.splice(step, 1)
+        nextOrder.splice(target, 0, instanceIndex)
+        fromStep = target
+      }
+    }
+    const candidate = construct(nextOrder, nextPreferences, current, fromStep)
+    evaluations++
+    const elapsed = (Date.now() - started) / Math.max(1, timeBudgetMs === Infinity ? 60_000 : timeBudgetMs)
+    const temperature = 0.002 * (1 - Math.min(1, elapsed)) * current.cost
+    if (candidate.cost <= current.cost || (temperature > 0 && candidate.cost < 1e12 && random() < Math.exp(-(candidate.cost - current.cost) / temperature))) {
+      current = candidate
+      order = nextOrder
+      preferences = nextPreferences
+      if (candidate.cost < best.evaluation.cost) best = { evaluation: candidate, order: [...nextOrder], preferences: [...nextPreferences] }
+    }
+    if (Date.now() - lastReport > 250) {
+      lastReport = Date.now()
+      report()
+    }
+  }
+  report()
+
+  const final = best.evaluation
+  const placements: Placement[] = final.placed.map((part) => {
+    const item = problem.items[part.instance.itemIndex]!
+    const x = part.x / scale
+    const y = part.y / scale
+    return {
+      itemId: item.id,
+      copy: part.instance.copy,
+      sheet: part.sheet,
+      angleDeg: part.variant.angleDeg,
+      mirrored: part.variant.mirrored,
+      x: part.variant.shift[0] + x,
+      y: part.variant.shift[1] + y,
+      outline: part.variant.outline.map(([px, py]) => [px + x, py + y]),
+      holes: part.variant.holes.map((hole) => hole.map(([px, py]) => [px + x, py + y])),
+    }
+  })
+  const realLength = placements.filter((placement) => placement.sheet === final.sheetCount - 1).reduce((max, placement) => Math.max(max, ...placement.outline.map(([px]) => px)), 0) + margin
+  const used = stock.kind === 'roll' ? stock.width * realLength : stock.kind === 'sheets' ? stock.width * stock.height * Math.max(0, final.sheetCount - 1) + stock.height * realLength : usedStockArea(final)
+  const placedPieceArea = placedArea(final)
+  return {
+    mode: stock.kind === 'polygon' ? 'polygon' : stock.kind,
+    placements,
+    unplaced: final.unplaced.map((instance) => ({ itemId: problem.items[instance.itemIndex]!.id, copy: instance.copy, reason: 'It does not fit on the stock' })),
+    length: realLength,
+    sheetCount: final.sheetCount,
+    utilisation: used > 0 ? placedPieceArea / used : 0,
+    pieceArea,
+    usedStockArea: used,
+    evaluations,
+    elapsedMs: Date.now() - started,
+    firstFeasibleMs,
+    seed,
+  }
+}
