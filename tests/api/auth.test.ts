@@ -72,6 +72,12 @@ describe('tokens', () => {
     expect(afterReplay.status).toBe(401)
   })
 
+  it('answers a refresh without any cookie with 204 (nothing to resume), not a session', async () => {
+    const response = await api().post('/api/auth/refresh')
+    expect(response.status).toBe(204)
+    expect(response.headers['set-cookie']).toBeUndefined()
+  })
+
   it('answers 401 for a missing, expired or tampered access token', async () => {
     const person = await signUp('tokens')
     await api().get('/api/me').expect(401)

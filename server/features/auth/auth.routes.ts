@@ -61,6 +61,8 @@ export function authRoutes(context: AppContext): Router {
   })
 
   router.post('/refresh', async (request, response) => {
+    // No cookie at all is not an error: there is simply no session to resume.
+    if (!request.cookies?.[refreshCookieName]) return void response.status(204).end()
     try {
       const issued = await authService.refresh(context, request.cookies?.[refreshCookieName])
       setRefreshCookie(context, response, issued)

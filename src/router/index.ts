@@ -1,0 +1,172 @@
+import { createRouter, createWebHistory, type RouteLocationNormalized, type RouteLocationRaw, type RouteRecordRaw } from 'vue-router'
+import { Notify } from 'quasar'
+import { useAuthStore } from '../features/auth/store'
+import { useWorkspacesStore } from '../features/workspaces/store'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Only for signed-in people; others go to sign-in and come back afterwards. */
+    requiresAuth?: boolean
+    /** Sign-in style pages: a signed-in person is sent on to their workspace. */
+    guestOnly?: boolean
+    /** Shown in the browser tab before "· Sheetsmith". */
+    title?: string
+  }
+}
+
+const routes: RouteRecordRaw[] = [
+  {
+    path: '/',
+    component: () => import('../layouts/AppShellLayout.vue'),
+    meta: { requiresAuth: true },
+    children: [
+      {
+        path: '',
+        name: 'start',
+        component: () => import('../features/workspaces/WorkspaceStartPage.vue'),
+        meta: { title: 'Start' },
+        beforeEnter: redirectToHomeWorkspace,
+      },
+      {
+        path: 'w/:workspaceId',
+        name: 'workspace-home',
+        component: () => import('../features/workspaces/WorkspaceHomePage.vue'),
+        meta: { title: 'Home' },
+      },
+      {
+        path: 'w/:workspaceId/members',
+        name: 'members',
+        component: () => import('../features/members/MembersPage.vue'),
+        meta: { title: 'Members' },
+      },
+      {
+        path: 'account',
+        name: 'account',
+        component: () => import('../features/account/AccountPage.vue'),
+        meta: { title: 'Account' },
+      },
+      {
+        // Public on purpose: reset and invite links must be reachable by people who can't sign in yet.
+        path: 'outbox',
+        name: 'outbox',
+        component: () => import('../features/outbox/OutboxPage.vue'),
+        meta: { title: 'Outbox', requiresAuth: false },
+      },
+    ],
+  },
+  {
+    path: '/',
+    component: () => import('../layouts/AuthLayout.vue'),
+    children: [
+      {
+        path: 'signin',
+        name: 'signin',
+        component: () => import('../features/auth/SignInPage.vue'),
+        meta: { title: 'Sign in', guestOnly: true },
+      },
+      {
+        path: 'signup',
+        name: 'signup',
+        component: () => import('../features/auth/SignUpPage.vue'),
+        meta: { title: 'Create an account', guestOnly: true },
+      },
+      {
+        path: 'forgot-password',
+        name: 'forgot-password',
+        component: () => import('../features/auth/ForgotPasswordPage.vue'),
+        meta: { title: 'Forgot password' },
+      },
+      {
+        path: 'reset-password',
+        name: 'reset-password',
+        component: () => import('../features/auth/ResetPasswordPage.vue'),
+        meta: { title: 'Choose a new password' },
+      },
+      {
+        path: 'invite/:token',
+        name: 'invite',
+        component: () => import('../features/invites/InviteAcceptPage.vue'),
+        meta: { title: 'Invitation' },
+      },
+    ],
+  },
+  {
+    path: '/:pathMatch(.*)*',
+    component: () => import('../layouts/AuthLayout.vue'),
+    children: [
+      {
+        path: '',
+        name: 'not-found',
+        component: () => import('../features/not-found/NotFoundPage.vue'),
+        meta: { title: 'Not found' },
+      },
+    ],
+  },
+]
+
+/** Only paths inside this app: a crafted `?redirect=//elsewhere` must not send anyone away. */
+export function safeRedirect(value: unknown): string | null {
+  if (typeof value !== 'string') return null
+  if (!value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\')) return null
+  return value
+}
+
+/** Keeps the typed address in the bar while showing the 404 page. */
+function notFoundAt(to: RouteLocationNormalized): RouteLocationRaw {
+  return {
+    name: 'not-found',
+    params: { pathMatch: to.path.slice(1).split('/') },
+    query: to.query,
+    hash: to.hash,
+  }
+}
+
+async function redirectToHomeWorkspace(): Promise<RouteLocationRaw | true> {
+  const workspaces = useWorkspacesStore()
+  try {
+    await workspaces.load()
+  } catch {
+    // The start page explains what went wrong and offers a retry.
+    return true
+  }
+  const workspaceId = workspaces.homeWorkspaceId()
+  return workspaceId ? { name: 'workspace-home', params: { workspaceId } } : true
+}
+
+export const router = createRouter({
+  history: createWebHistory(import.meta.env.BASE_URL),
+  routes,
+  // A hash (the skip link) scrolls to its element; anything else starts at the top.
+  scrollBehavior: (to, _from, saved) => saved ?? (to.hash ? { el: to.hash } : { top: 0 }),
+})
+
+router.beforeEach(async (to) => {
+  const auth = useAuthStore()
+  await auth.restore()
+
+  if (to.meta.requiresAuth && !auth.isSignedIn) {
+    return { name: 'signin', query: to.fullPath === '/' ? {} : { redirect: to.fullPath } }
+  }
+  if (to.meta.guestOnly && auth.isSignedIn) {
+    return safeRedirect(to.query.redirect) ?? '/'
+  }
+
+  const workspaceId = to.params.workspaceId
+  if (typeof workspaceId === 'string' && auth.isSignedIn) {
+    const workspaces = useWorkspacesStore()
+    try {
+      await workspaces.load()
+    } catch (error) {
+      Notify.create({ type: 'negative', message: error instanceof Error ? error.message : 'Could not load your workspaces.' })
+      return true
+    }
+    // Someone else's workspace looks exactly like one that does not exist.
+    if (!workspaces.has(workspaceId)) return notFoundAt(to)
+    workspaces.select(workspaceId)
+  }
+  return true
+})
+
+router.afterEach((to) => {
+  document.title = to.meta.title ? `${to.meta.title} · Sheetsmith` : 'Sheetsmith'
+})
