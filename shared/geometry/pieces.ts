@@ -30,6 +30,7 @@ interface ClosedRing {
   /** Area enclosed by the true curves (the flattened ring's area is slightly smaller). */
   exactAreaMm2: number
   absoluteArea: number
+  perimeter: number
   bbox: Box
   used: boolean
 }
@@ -49,7 +50,7 @@ const fillType = (fillRule: 'nonzero' | 'evenodd') => (fillRule === 'evenodd' ? 
 
 /**
  * Finds the input ring an output ring came from, unchanged, so its true curve length can be used.
- * Rings are sorted by minX; a match has the same bounding box (within 2 µm) and area (within 0.05 %).
+ * Rings are sorted by minX; a match has the same bounding box (within 2 µm) and area (within the rounding to the grid).
  */
 function matchOriginal(sorted: ClosedRing[], ring: Ring): ClosedRing | undefined {
   const box = boundingBox(ring)
@@ -66,7 +67,8 @@ function matchOriginal(sorted: ClosedRing[], ring: Ring): ClosedRing | undefined
     const candidate = sorted[index]!
     if (candidate.used) continue
     if (Math.abs(candidate.bbox.minY - box.minY) > slack || Math.abs(candidate.bbox.maxX - box.maxX) > slack || Math.abs(candidate.bbox.maxY - box.maxY) > slack) continue
-    if (Math.abs(candidate.absoluteArea - area) > 5e-4 * Math.max(area, 1e-6) + 1e-6) continue
+    // Rounding every vertex to the 1 µm grid moves the area by at most about perimeter × 1 µm.
+    if (Math.abs(candidate.absoluteArea - area) > candidate.perimeter * (1 / clipperScale) + 1e-9) continue
     candidate.used = true
     return candidate
   }
@@ -108,7 +110,7 @@ export function buildPieces(
       if (points.length < 3) continue
       const absoluteArea = Math.abs(signedArea(points))
       if (absoluteArea === 0) continue
-      originals.push({ ring: points, lengthMm, exactAreaMm2: Math.abs(contourSignedArea(closed)), absoluteArea, bbox: boundingBox(points), used: false })
+      originals.push({ ring: points, lengthMm, exactAreaMm2: Math.abs(contourSignedArea(closed)), absoluteArea, perimeter: perimeter(points), bbox: boundingBox(points), used: false })
       shapePaths.push(toIntPath(points))
     }
     if (shapePaths.length === 0) continue

@@ -127,8 +127,14 @@ export function readSvgDrawing(text: string): SvgDrawing {
   if ((widthLength?.kind === 'percent' || heightLength?.kind === 'percent') && viewBox) {
     warnings.add('percent_size', 'The SVG size is a percentage; the viewBox size was read as CSS px (96 per inch)')
   }
-  const widthUser = widthLength?.kind === 'absolute' ? widthLength.mm / MM_PER_PX : (viewBox?.[2] ?? 0)
-  const heightUser = heightLength?.kind === 'absolute' ? heightLength.mm / MM_PER_PX : (viewBox?.[3] ?? 0)
+  let widthUser = widthLength?.kind === 'absolute' ? widthLength.mm / MM_PER_PX : undefined
+  let heightUser = heightLength?.kind === 'absolute' ? heightLength.mm / MM_PER_PX : undefined
+  // One side given with a viewBox: the other follows the viewBox's aspect ratio, as browsers size an SVG image
+  // (CSS 2.1 §10.6.2, intrinsic ratio).
+  if (viewBox && widthUser !== undefined && heightUser === undefined) heightUser = (widthUser * viewBox[3]) / viewBox[2]
+  if (viewBox && heightUser !== undefined && widthUser === undefined) widthUser = (heightUser * viewBox[2]) / viewBox[3]
+  widthUser ??= viewBox?.[2] ?? 0
+  heightUser ??= viewBox?.[3] ?? 0
   if (!widthLength && !heightLength && !viewBox) warnings.add('no_size', 'The SVG gives no size or viewBox; coordinates were read as CSS px (96 per inch)')
 
   const rootMatrix = multiply(scaling(MM_PER_PX), viewBox ? viewportTransform(viewBox, widthUser, heightUser, root.attributes.preserveAspectRatio) : identity)
