@@ -176,6 +176,39 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
     return count
   }
 
+  /**
+   * Settling pass: take each piece, rightmost first, out of the layout and put it back at its best position among
+   * all the others (any allowed orientation). A piece only moves when that shortens or lowers it, so the layout
+   * never gets worse; repeated until nothing moves.
+   */
+  const compact = (evaluation: Evaluation): Evaluation => {
+    let placed = [...evaluation.placed]
+    for (let round = 0; round < 8; round++) {
+      let moved = false
+      const byRightEdge = [...placed].sort((left, right) => rightEdgeOf(right) - rightEdgeOf(left))
+      for (const part of byRightEdge) {
+        if (options.shouldStop?.()) break
+        const others = placed.filter((other) => other !== part)
+        const currentScore = part.x + part.variant.fitBounds.maxX + 0.05 * (part.y + part.variant.fitBounds.maxY)
+        let bestCandidate: Candidate | undefined
+        for (const variant of variantChoices(part.instance, 0)) {
+          const candidate = bestPositionOnSheet(variant, part.sheet, others, obstacles, container, cache, others.reduce((max, other) => Math.max(max, rightEdgeOf(other)), container.minX) + variant.fitBounds.maxX + 2)
+          if (candidate && (!bestCandidate || candidate.score < bestCandidate.score)) bestCandidate = candidate
+        }
+        if (bestCandidate && bestCandidate.score < currentScore - 1) {
+          const replacement: PlacedPart = { instance: part.instance, variant: bestCandidate.variant, sheet: part.sheet, x: bestCandidate.x, y: bestCandidate.y }
+          placed = placed.map((other) => (other === part ? replacement : other))
+          moved = true
+        }
+      }
+      if (!moved) break
+    }
+    const lastSheet = placed.reduce((max, part) => Math.max(max, part.sheet), 0)
+    const length = placed.filter((part) => part.sheet === lastSheet).reduce((max, part) => Math.max(max, part.x + part.variant.widthReal * scale), 0)
+    const cost = evaluation.unplaced.length * 1e15 + (container.kind === 'sheet' ? lastSheet * 1e12 : 0) + length
+    return cost <= evaluation.cost ? { ...evaluation, placed, length, cost } : evaluation
+  }
+
   let evaluations = 0
   let order = [...initialOrder]
   let preferences = instances.map(() => 0)
@@ -253,7 +286,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   }
   report()
 
-  const final = best.evaluation
+  const final = compact(best.evaluation)
   const placements: Placement[] = final.placed.map((part) => {
     const item = problem.items[part.instance.itemIndex]!
     const x = part.x / scale
