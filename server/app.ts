@@ -11,6 +11,7 @@ import { createPassport, optionalAuth, requireAuth } from './middleware/authenti
 import { authRoutes, meRoutes } from './features/auth/auth.routes.js'
 import { workspacesRoutes } from './features/workspaces/workspaces.routes.js'
 import { designsRoutes } from './features/designs/designs.routes.js'
+import { nestingRoutes } from './features/nesting/nesting.routes.js'
 import { invitesRoutes } from './features/invites/invites.routes.js'
 import { devOutboxRoutes, systemRoutes } from './features/system/system.routes.js'
 
@@ -63,6 +64,7 @@ export function createApp(context: AppContext): Express {
   api.use('/auth', authRoutes(context))
   api.use('/me', meRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/designs', designsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/nest-runs', nestingRoutes(context, signedIn))
   api.use('/workspaces', workspacesRoutes(context, signedIn))
   api.use('/invites', invitesRoutes(context, optionalAuth(passport)))
   api.use('/dev', devOutboxRoutes(context))

@@ -24,6 +24,8 @@ const environmentSchema = z.object({
   RUN_JOBS: booleanFromEnv.default(true),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   CLIENT_DIST: z.string().default('dist'),
+  /** Longest one uploaded SVG may take to read before it is refused as too complex. */
+  IMPORT_TIMEOUT_MS: z.coerce.number().int().min(500).default(20_000),
 })
 
 export type AppConfig = ReturnType<typeof loadConfig>
@@ -58,5 +60,6 @@ export function loadConfig(environment: NodeJS.ProcessEnv = process.env) {
     runJobs: env.RUN_JOBS,
     logLevel: env.LOG_LEVEL ?? (env.NODE_ENV === 'test' ? 'warn' : 'info'),
     clientDist: env.CLIENT_DIST,
+    importTimeoutMs: env.IMPORT_TIMEOUT_MS,
   }
 }

@@ -6,7 +6,7 @@ import { createLogger } from './logger.js'
 import { startMailCatcher, type MailCatcher } from './features/mail/mailCatcher.js'
 import { createMailService, createInlineMailDispatcher } from './features/mail/mail.service.js'
 import { createMailTransport } from './features/mail/mail.transport.js'
-import { createQueuedMailDispatcher, startJobQueue, workJobs } from './jobs/boss.js'
+import { createJobSender, createQueuedMailDispatcher, startJobQueue, workJobs, workNestRuns } from './jobs/boss.js'
 
 export interface Runtime {
   context: AppContext
@@ -32,7 +32,8 @@ export async function startRuntime(config: AppConfig, options: { withQueue?: boo
     if (config.runJobs) await workJobs(boss, { db: database.db, transport, mailFrom: config.mailFrom, logger })
   }
   const dispatcher = boss ? createQueuedMailDispatcher(boss) : createInlineMailDispatcher(database.db, transport, config.mailFrom, logger)
-  const context: AppContext = { config, db: database.db, mail: createMailService(dispatcher), logger }
+  const context: AppContext = { config, db: database.db, mail: createMailService(dispatcher), logger, jobs: boss ? createJobSender(boss) : undefined }
+  if (boss && config.runJobs) await workNestRuns(boss, context)
   return {
     context,
     boss,

@@ -2,7 +2,12 @@
 export const queueNames = {
   mailDeliver: 'mail-deliver',
   mailSweep: 'mail-sweep',
+  nestRun: 'nest-run',
 } as const
+
+export interface NestRunJob {
+  runId: string
+}
 
 export interface MailDeliverJob {
   mailId: string

@@ -2,11 +2,15 @@ import ClipperLib from 'clipper-lib'
 import { contourEnd, contourLength, contourSignedArea, contourStart, flattenContour, type Contour } from './curves.js'
 import { boundingBox, perimeter, signedArea, type Box, type Ring } from './polygon.js'
 import type { DrawnShape, ReadWarning } from './svgDocument.js'
+import { SvgReadError } from './xmlTree.js'
 
 /** Integer grid of the boolean operations: 1 unit = 1 µm, far below any cutting tolerance. */
 const clipperScale = 1000
 /** Ends of an open subpath closer than this are taken as closed (mm). */
 const closingGapMm = 1e-4
+/** Limits that keep one upload from tying up the server: far beyond any real cutting design. */
+const maxVertices = 2_000_000
+const maxCoordinateMm = 100_000
 
 export interface PieceGeometry {
   /** Outer outline, positive signed area. */
@@ -93,7 +97,10 @@ export function buildPieces(
   }
   const cutLines: CutLineGeometry[] = []
   const originals: ClosedRing[] = []
+  let vertexCount = 0
   const resolvedPaths: IntPath[] = []
+  const seenAreas = new Set<string>()
+  let duplicateCount = 0
 
   for (const shape of shapes) {
     const shapePaths: IntPath[] = []
@@ -102,6 +109,11 @@ export function buildPieces(
       const end = contourEnd(contour)
       const closed: Contour = contour.closed || !start || !end || Math.hypot(start[0] - end[0], start[1] - end[1]) > closingGapMm ? contour : { ...contour, closed: true }
       const points = flattenContour(closed, options.toleranceMm)
+      vertexCount += points.length
+      if (vertexCount > maxVertices) throw new SvgReadError('too_complex', `The drawing has more than ${maxVertices.toLocaleString('en')} outline points after flattening; simplify it or split it into several files`)
+      for (const [x, y] of points) {
+        if (!(Math.abs(x) <= maxCoordinateMm && Math.abs(y) <= maxCoordinateMm)) throw new SvgReadError('bad_size', 'The drawing reaches further than 100 m from its origin; check its units and size')
+      }
       const lengthMm = contourLength(closed)
       if (!closed.closed) {
         if (lengthMm > 0) cutLines.push({ points, lengthMm })
@@ -117,8 +129,19 @@ export function buildPieces(
     const clipper = union(shapePaths, shape.fillRule)
     const solution: IntPath[] = []
     clipper.Execute(ClipperLib.ClipType.ctUnion, solution, fillType(shape.fillRule), fillType(shape.fillRule))
+    // The same outline drawn twice (a filled copy and a stroked copy is common) is one cut, not a hole in itself.
+    const key = solution
+      .map((path) => path.map((point) => `${point.X},${point.Y}`).join(' '))
+      .sort()
+      .join('|')
+    if (seenAreas.has(key)) {
+      duplicateCount += 1
+      continue
+    }
+    seenAreas.add(key)
     resolvedPaths.push(...solution)
   }
+  if (duplicateCount > 0) warn('duplicate_outline', 'Outlines drawn more than once on top of each other were read once', duplicateCount)
 
   const pieces: PieceGeometry[] = []
   if (resolvedPaths.length > 0) {

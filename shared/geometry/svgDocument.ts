@@ -39,6 +39,8 @@ interface Viewport {
   heightUser: number
 }
 
+const maxShapes = 50_000
+
 const inheritedDefaults: Style = { display: 'inline', visibility: 'visible', fillRule: 'nonzero', stroke: 'none', strokeWidth: '1' }
 
 /** Elements that never draw by themselves, or are used only through references. */
@@ -241,6 +243,8 @@ export function readSvgDrawing(text: string): SvgDrawing {
 
     const contours = shapeContours(element, state.viewport, warnings)
     if (contours.length === 0) return
+    // <use> can multiply shapes exponentially with nesting; a real design never comes near this.
+    if (shapes.length >= maxShapes) throw new SvgReadError('too_complex', `The drawing has more than ${maxShapes.toLocaleString('en')} shapes (check for deeply repeated <use> references)`)
     if (determinant(matrix) === 0) return warnings.add('flat_transform', 'An element flattened to a line by its transform was skipped')
     const toMillimetres = multiply(rootMatrix, matrix)
     const scaleMm = Math.sqrt(Math.abs(determinant(toMillimetres)))

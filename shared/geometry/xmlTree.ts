@@ -10,7 +10,7 @@ export interface XmlElement {
 
 export class SvgReadError extends Error {
   constructor(
-    readonly code: 'not_svg' | 'malformed_xml' | 'doctype' | 'empty' | 'bad_size',
+    readonly code: 'not_svg' | 'malformed_xml' | 'doctype' | 'empty' | 'bad_size' | 'too_complex',
     message: string,
   ) {
     super(message)
@@ -29,6 +29,8 @@ const parser = new XMLParser({
   parseTagValue: false,
   trimValues: false,
   allowBooleanAttributes: true,
+  // Style sheets are often wrapped in CDATA; its text belongs to the element like any other text.
+  cdataPropName: '#cdata',
 })
 
 type RawNode = Record<string, unknown> & { ':@'?: Record<string, string> }
@@ -41,6 +43,7 @@ function toElement(node: RawNode): XmlElement | undefined {
   let text = ''
   for (const child of rawChildren) {
     if ('#text' in child) text += String(child['#text'])
+    else if ('#cdata' in child) text += (child['#cdata'] as { '#text'?: unknown }[]).map((part) => String(part['#text'] ?? '')).join('')
     else {
       const element = toElement(child)
       if (element) children.push(element)

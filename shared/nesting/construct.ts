@@ -36,7 +36,7 @@ export interface Container {
   regionFor?: (variant: Variant) => IntPath[]
 }
 
-interface CachedRegion {
+export interface CachedRegion {
   paths: IntPath[]
   minX: number
   minY: number
@@ -104,12 +104,12 @@ export function bestPositionOnSheet(
   verticalWeight = 0.05,
 ): Candidate | undefined {
   const bounds = variant.fitBounds
-  // The inner-fit rectangle grows by one unit on each side: the fit shape already carries that allowance.
   let fitPaths: IntPath[]
   let windowMinX: number
   let windowMaxX: number
   let windowMinY: number
   let windowMaxY: number
+  let clampRange: { minX: number; minY: number; maxX: number; maxY: number } | undefined
   if (container.kind === 'region') {
     fitPaths = container.regionFor!(variant)
     if (fitPaths.length === 0) return undefined
@@ -119,12 +119,19 @@ export function bestPositionOnSheet(
     windowMinY = box.minY
     windowMaxY = box.maxY
   } else {
-    windowMinX = container.minX - bounds.minX - 1
-    windowMinY = container.minY - bounds.minY - 1
-    windowMaxY = container.maxY - bounds.maxY + 1
+    // The real range of the reference point comes from the real outline's extent (its bounding box starts at the
+    // reference point), not from the grown fit shape: a mitred offset can stay flush with the outline at sharp
+    // corners. The window is one unit larger on each side so that a piece exactly as tall as the roll still has a
+    // strip of free area (a zero-area window would vanish in the boolean step); chosen points are clamped back.
+    const realMaxY = container.maxY - variant.extentY
+    const realMaxX = container.maxX - variant.extentX
+    if (realMaxY < container.minY || realMaxX < container.minX) return undefined
+    clampRange = { minX: container.minX, minY: container.minY, maxX: realMaxX, maxY: realMaxY }
+    windowMinX = container.minX - 1
+    windowMinY = container.minY - 1
+    windowMaxY = realMaxY + 1
     // On a strip, no position further right than "just after everything placed" is ever the best one.
-    windowMaxX = container.kind === 'strip' ? Math.max(windowMinX + 2, stripLength - bounds.minX + 1) : container.maxX - bounds.maxX + 1
-    if (windowMaxX <= windowMinX || windowMaxY <= windowMinY) return undefined
+    windowMaxX = container.kind === 'strip' ? Math.min(Math.max(windowMinX + 2, stripLength - bounds.minX + 1), realMaxX + 1) : realMaxX + 1
     fitPaths = [
       [
         { X: windowMinX, Y: windowMinY },
@@ -150,9 +157,16 @@ export function bestPositionOnSheet(
   let best: Candidate | undefined
   for (const path of free) {
     for (const point of path) {
+      let x = point.X
+      let y = point.Y
+      if (clampRange) {
+        // At most one unit: the shapes carry more allowance than that (see nest.ts), so this never makes an overlap.
+        x = Math.min(Math.max(x, clampRange.minX), clampRange.maxX)
+        y = Math.min(Math.max(y, clampRange.minY), clampRange.maxY)
+      }
       // Mostly "as far left as possible", with a light pull downwards so columns fill bottom-up.
-      const score = point.X + bounds.maxX + verticalWeight * (point.Y + bounds.maxY)
-      if (!best || score < best.score) best = { variant, sheet, x: point.X, y: point.Y, score }
+      const score = x + bounds.maxX + verticalWeight * (y + bounds.maxY)
+      if (!best || score < best.score) best = { variant, sheet, x, y, score }
     }
   }
   return best

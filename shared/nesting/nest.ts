@@ -1,4 +1,5 @@
 import ClipperLib from 'clipper-lib'
+import { compressStrip } from './compress.js'
 import { bestPositionOnSheet, NoFitCache, type Candidate, type Container, type Instance, type Obstacle, type PlacedPart } from './construct.js'
 import { chooseScale, orient, toIntPath } from './intGeometry.js'
 import { innerFitRegion } from './noFitRegion.js'
@@ -69,11 +70,13 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
         ? Math.max(stock.width, stock.height)
         : Math.max(...stock.outline.flat().map(Math.abs))
   const scale = chooseScale(stockExtent * 1.5 + spacing)
+  // No-fit regions are pulled in by `safety` units so touching positions stay free; the shapes grow by twice that,
+  // because a mitred integer offset can lose up to about half a unit to rounding at sharp corners.
   const safety = 1
   const variants = buildVariants(problem.items, {
     scale,
     halfSpacing: Math.round((spacing / 2) * scale),
-    safety,
+    safety: 2 * safety,
     simplify: Math.round((problem.simplifyTolerance ?? 0) * scale),
   })
   const cache = new NoFitCache(safety)
@@ -158,6 +161,12 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       sheetCount = Math.max(sheetCount, chosen.sheet + 1)
       stripLength = Math.max(stripLength, rightEdgeOf(part))
     }
+    return evaluationOf(placed, unplaced)
+  }
+
+  /** Length and cost of a layout: unplaced first, then sheets, then the used length of the last sheet. */
+  function evaluationOf(placed: PlacedPart[], unplaced: Instance[]): Evaluation {
+    const sheetCount = placed.reduce((max, part) => Math.max(max, part.sheet + 1), 0)
     const lastSheet = sheetCount - 1
     // The real outline's bounding box starts at the reference point, so its right edge is x + width.
     const length = placed.filter((part) => part.sheet === lastSheet).reduce((max, part) => Math.max(max, part.x + part.variant.widthReal * scale), 0)
@@ -244,7 +253,13 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   // not worse (sideways moves cross plateaus), and now and then accept a slightly worse layout (annealing).
   let lastReport = Date.now()
   const n = order.length
-  while (n > 1 && evaluations < maxEvaluations && Date.now() - started < timeBudgetMs && !options.shouldStop?.()) {
+  // On a roll, the order search gets 5 % of the budget and compression (overlap minimisation) the rest: measured on
+  // the ESICUP set, compression closes far more of the gap to the best-known layouts than further reordering.
+  const compresses = container.kind === 'strip' && n > 1
+  const constructionShare = compresses ? 0.05 : 1
+  const constructionEvaluations = maxEvaluations === Infinity ? Infinity : Math.max(1, Math.floor(maxEvaluations * constructionShare))
+  const constructionMs = timeBudgetMs * constructionShare
+  while (n > 1 && evaluations < constructionEvaluations && Date.now() - started < constructionMs && !options.shouldStop?.()) {
     const nextOrder = [...order]
     const nextPreferences = [...preferences]
     let fromStep: number
@@ -286,7 +301,45 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   }
   report()
 
-  const final = compact(best.evaluation)
+  if (compresses) {
+    const compressionStarted = Date.now()
+    const compressionEvaluations = evaluations
+    const compressed = compressStrip(
+      best.evaluation.placed,
+      (part) => variantChoices(part.instance, Math.max(0, variants[part.instance.itemIndex]!.indexOf(part.variant))),
+      variants.flat(),
+      obstacles,
+      container,
+      cache,
+      {
+        random,
+        tick: () => {
+          if (evaluations >= maxEvaluations || Date.now() - started >= timeBudgetMs || options.shouldStop?.()) return false
+          evaluations++
+          if (Date.now() - lastReport > 250) {
+            lastReport = Date.now()
+            report()
+          }
+          return true
+        },
+        progress: () => {
+          const byTime = timeBudgetMs === Infinity ? 0 : (Date.now() - compressionStarted) / Math.max(1, timeBudgetMs - (compressionStarted - started))
+          const byCount = maxEvaluations === Infinity ? 0 : (evaluations - compressionEvaluations) / Math.max(1, maxEvaluations - compressionEvaluations)
+          return Math.max(byTime, byCount)
+        },
+        onImproved: (parts) => {
+          const evaluation = evaluationOf(parts, best.evaluation.unplaced)
+          if (evaluation.cost < best.evaluation.cost) best = { ...best, evaluation }
+        },
+      },
+    )
+    const evaluation = evaluationOf(compressed, best.evaluation.unplaced)
+    if (evaluation.cost < best.evaluation.cost) best = { ...best, evaluation }
+    report()
+  }
+
+  // After a compression the settling pass rarely finds anything and costs seconds on a hundred pieces.
+  const final = compresses ? best.evaluation : compact(best.evaluation)
   const placements: Placement[] = final.placed.map((part) => {
     const item = problem.items[part.instance.itemIndex]!
     const x = part.x / scale

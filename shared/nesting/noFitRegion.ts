@@ -1,5 +1,5 @@
 import ClipperLib from 'clipper-lib'
-import { interiorPoint, offsetPaths, orient, pointInShape, type IntPath, type IntShape } from './intGeometry.js'
+import { interiorPoint, offsetPaths, orient, pathArea, pointInShape, type IntPath, type IntShape } from './intGeometry.js'
 
 const negate = (path: IntPath): IntPath => path.map((point) => ({ X: -point.X, Y: -point.Y }))
 
@@ -10,11 +10,13 @@ const negate = (path: IntPath): IntPath => path.map((point) => ({ X: -point.X, Y
  * region is classified with one test point, so B may sit in a hole of A, in a pocket of A, or around A inside
  * a hole of B.
  *
- * `shrink` (integer units) pulls the region's boundary inward so positions where B exactly touches A form a
- * thin free strip rather than a line the boolean step would drop; callers grow the shapes by at least as much.
+ * `shrink` (integer units) thins B before the sum, so positions where B exactly touches A (a piece sliding into a
+ * slot of its own width, or between two pieces) form a thin free strip rather than a line the boolean step would
+ * drop; callers grow the shapes by at least as much, so nothing overlaps for real.
  * Returns closed paths for non-zero filling: outer boundaries positive, free holes negative.
  */
-export function noFitRegion(a: IntShape, b: IntShape, shrink: number): IntPath[] {
+export function noFitRegion(a: IntShape, bInput: IntShape, shrink: number): IntPath[] {
+  const b = shrink > 0 ? thinned(bInput, shrink) : bInput
   const bRings = [b.outer, ...b.holes].map(negate)
   const aRings = [a.outer, ...a.holes]
   const sweep: IntPath[] = []
@@ -49,7 +51,15 @@ export function noFitRegion(a: IntShape, b: IntShape, shrink: number): IntPath[]
     }
   }
   for (const node of tree.Childs()) visitOuter(node)
-  return shrink > 0 ? offsetPaths(result, -shrink) : result
+  return result
+}
+
+/** The shape pulled in by `amount` units (outline shrinks, holes grow); unchanged if that would erase it. */
+function thinned(shape: IntShape, amount: number): IntShape {
+  const paths = offsetPaths([orient(shape.outer, true), ...shape.holes.map((hole) => orient(hole, false))], -amount)
+  const outers = paths.filter((path) => pathArea(path) > 0)
+  if (outers.length !== 1) return shape
+  return { outer: outers[0]!, holes: paths.filter((path) => pathArea(path) < 0) }
 }
 
 /**

@@ -19,6 +19,9 @@ export interface Variant {
   fitBounds: { minX: number; minY: number; maxX: number; maxY: number }
   widthReal: number
   heightReal: number
+  /** The real outline's width and height in integer units, rounded up: the inner-fit rectangle comes from these. */
+  extentX: number
+  extentY: number
 }
 
 export function transformRing(ring: RingPoints, angleDeg: number, mirrored: boolean): RingPoints {
@@ -147,6 +150,8 @@ export function buildVariants(items: NestItem[], settings: VariantSettings): Var
           fitBounds: { minX, minY, maxX, maxY },
           widthReal: bounds.maxX - bounds.minX,
           heightReal: bounds.maxY - bounds.minY,
+          extentX: Math.ceil((bounds.maxX - bounds.minX) * settings.scale - 1e-6),
+          extentY: Math.ceil((bounds.maxY - bounds.minY) * settings.scale - 1e-6),
         })
       }
     }

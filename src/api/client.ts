@@ -6,6 +6,7 @@ type HttpMethod = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
 
 export interface RequestOptions<T> {
   method?: HttpMethod
+  /** JSON-encoded, except FormData, which goes as multipart with the boundary the browser picks. */
   body?: unknown
   query?: Record<string, string | number | boolean | undefined>
   /** Checks the successful answer; a mismatch becomes an ApiError instead of a broken page later. */
@@ -70,7 +71,10 @@ function buildUrl(path: string, query: RequestOptions<unknown>['query']): string
 
 async function readBody(response: Response): Promise<unknown> {
   if (response.status === 204) return undefined
-  const text = await response.text()
+  return parsePayload(await response.text())
+}
+
+function parsePayload(text: string): unknown {
   if (text === '') return undefined
   try {
     return JSON.parse(text)
@@ -79,18 +83,49 @@ async function readBody(response: Response): Promise<unknown> {
   }
 }
 
-/** One HTTP exchange, no retries: JSON in and out, every failure as an ApiError. */
-async function send<T>(path: string, options: RequestOptions<T>, accessToken: string | null): Promise<T> {
-  const headers: Record<string, string> = { Accept: 'application/json' }
-  if (options.body !== undefined) headers['Content-Type'] = 'application/json'
-  if (accessToken) headers.Authorization = `Bearer ${accessToken}`
+/** A failed answer as an ApiError: our error shape when the server sent one, else wording for the status. */
+function errorFromAnswer(status: number, payload: unknown): ApiError {
+  const parsed = apiErrorSchema.safeParse(payload)
+  if (parsed.success) {
+    const { code, message, fields } = parsed.data.error
+    // The contract lists the codes; an unknown one still carries a readable message.
+    return new ApiError(code as ApiErrorCode, status, message, fields ?? {})
+  }
+  return new ApiError(codeForStatus(status), status, messageForStatus(status))
+}
 
+/** A successful payload, checked against the schema when there is one. */
+function checkedPayload<T>(payload: unknown, status: number, options: RequestOptions<T>, path: string): T {
+  if (!options.schema) return payload as T
+  const checked = options.schema.safeParse(payload)
+  if (!checked.success) {
+    console.error(`Unexpected answer from ${options.method ?? 'GET'} ${path}`, checked.error.issues)
+    throw new ApiError('bad_response', status, BAD_RESPONSE_MESSAGE)
+  }
+  return checked.data
+}
+
+function requestHeaders(body: unknown, accessToken: string | null): Record<string, string> {
+  const headers: Record<string, string> = { Accept: 'application/json' }
+  // FormData gets no Content-Type from us: the browser writes it, boundary included.
+  if (body !== undefined && !(body instanceof FormData)) headers['Content-Type'] = 'application/json'
+  if (accessToken) headers.Authorization = `Bearer ${accessToken}`
+  return headers
+}
+
+function encodeBody(body: unknown): BodyInit | undefined {
+  if (body === undefined) return undefined
+  return body instanceof FormData ? body : JSON.stringify(body)
+}
+
+/** One HTTP exchange, no retries: JSON (or multipart) in, JSON out, every failure as an ApiError. */
+async function send<T>(path: string, options: RequestOptions<T>, accessToken: string | null): Promise<T> {
   let response: Response
   try {
     response = await fetch(buildUrl(path, options.query), {
       method: options.method ?? 'GET',
-      headers,
-      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      headers: requestHeaders(options.body, accessToken),
+      body: encodeBody(options.body),
       // The refresh token is an httpOnly cookie scoped to /api/auth on this origin.
       credentials: 'same-origin',
     })
@@ -105,23 +140,8 @@ async function send<T>(path: string, options: RequestOptions<T>, accessToken: st
     throw new ApiError('network_error', 0, NETWORK_MESSAGE)
   }
 
-  if (!response.ok) {
-    const parsed = apiErrorSchema.safeParse(payload)
-    if (parsed.success) {
-      const { code, message, fields } = parsed.data.error
-      // The contract lists the codes; an unknown one still carries a readable message.
-      throw new ApiError(code as ApiErrorCode, response.status, message, fields ?? {})
-    }
-    throw new ApiError(codeForStatus(response.status), response.status, messageForStatus(response.status))
-  }
-
-  if (!options.schema) return payload as T
-  const checked = options.schema.safeParse(payload)
-  if (!checked.success) {
-    console.error(`Unexpected answer from ${options.method ?? 'GET'} ${path}`, checked.error.issues)
-    throw new ApiError('bad_response', response.status, BAD_RESPONSE_MESSAGE)
-  }
-  return checked.data
+  if (!response.ok) throw errorFromAnswer(response.status, payload)
+  return checkedPayload(payload, response.status, options, path)
 }
 
 let refreshInFlight: Promise<SessionResponse | null> | null = null
@@ -150,13 +170,11 @@ export function refreshSession(): Promise<SessionResponse | null> {
   return refreshInFlight
 }
 
-/** Calls the API with the current access token; on a 401 refreshes the session once and retries. */
-export async function request<T = void>(path: string, options: RequestOptions<T> = {}): Promise<T> {
-  if (options.withoutSession) return send(path, options, null)
-
+/** Runs one exchange with the current access token; on a 401 refreshes the session once and runs it again. */
+async function withSession<T>(exchange: (accessToken: string | null) => Promise<T>): Promise<T> {
   const tokenSent = session.accessToken()
   try {
-    return await send(path, options, tokenSent)
+    return await exchange(tokenSent)
   } catch (error) {
     if (!(error instanceof ApiError) || error.status !== 401) throw error
   }
@@ -168,7 +186,117 @@ export async function request<T = void>(path: string, options: RequestOptions<T>
     session.expired()
     throw new ApiError('unauthenticated', 401, 'Your session has ended. Sign in again to continue.')
   }
-  return send(path, options, token)
+  return exchange(token)
+}
+
+/** Calls the API with the current access token; on a 401 refreshes the session once and retries. */
+export async function request<T = void>(path: string, options: RequestOptions<T> = {}): Promise<T> {
+  if (options.withoutSession) return send(path, options, null)
+  return withSession((token) => send(path, options, token))
+}
+
+export interface UploadOptions<T> {
+  /** Defaults to POST. */
+  method?: HttpMethod
+  schema?: ZodType<T>
+  /** Bytes of the request body sent so far, and the total; called as the upload goes. */
+  onProgress?: (sentBytes: number, totalBytes: number) => void
+  /** Aborting rejects with a DOMException named AbortError (see isAbortError). */
+  signal?: AbortSignal
+}
+
+/**
+ * A multipart upload through XMLHttpRequest, because fetch cannot report upload progress.
+ * Same session handling and error shape as `request`; a retry after a refresh sends the form again.
+ */
+export function upload<T>(path: string, form: FormData, options: UploadOptions<T> = {}): Promise<T> {
+  const requestOptions: RequestOptions<T> = { method: options.method ?? 'POST', schema: options.schema }
+  return withSession(
+    (token) =>
+      new Promise<T>((resolve, reject) => {
+        if (options.signal?.aborted) return reject(new DOMException('The upload was cancelled', 'AbortError'))
+        const xhr = new XMLHttpRequest()
+        xhr.open(requestOptions.method ?? 'POST', path)
+        for (const [name, value] of Object.entries(requestHeaders(form, token))) xhr.setRequestHeader(name, value)
+        xhr.responseType = 'text'
+        const abort = () => xhr.abort()
+        options.signal?.addEventListener('abort', abort, { once: true })
+        const settle = () => options.signal?.removeEventListener('abort', abort)
+        xhr.upload.onprogress = (event) => {
+          if (event.lengthComputable) options.onProgress?.(event.loaded, event.total)
+        }
+        xhr.onerror = () => {
+          settle()
+          reject(new ApiError('network_error', 0, NETWORK_MESSAGE))
+        }
+        xhr.onabort = () => {
+          settle()
+          reject(new DOMException('The upload was cancelled', 'AbortError'))
+        }
+        xhr.onload = () => {
+          settle()
+          const payload = xhr.status === 204 ? undefined : parsePayload(xhr.responseText)
+          if (xhr.status < 200 || xhr.status >= 300) return reject(errorFromAnswer(xhr.status, payload))
+          try {
+            resolve(checkedPayload(payload, xhr.status, requestOptions, path))
+          } catch (error) {
+            reject(error)
+          }
+        }
+        xhr.send(form)
+      }),
+  )
+}
+
+export function isAbortError(value: unknown): boolean {
+  return value instanceof DOMException && value.name === 'AbortError'
+}
+
+export interface DownloadedFile {
+  blob: Blob
+  /** From Content-Disposition (the UTF-8 `filename*` when given), else null. */
+  filename: string | null
+}
+
+/** The file name a Content-Disposition header offers, preferring the RFC 6266 `filename*` form. */
+export function filenameFromDisposition(header: string | null): string | null {
+  if (!header) return null
+  const extended = /filename\*\s*=\s*utf-8''([^;]+)/i.exec(header)
+  if (extended?.[1]) {
+    try {
+      return decodeURIComponent(extended[1].trim())
+    } catch {
+      // A malformed escape falls through to the plain name.
+    }
+  }
+  const plain = /filename\s*=\s*"?([^";]+)"?/.exec(header)
+  return plain?.[1]?.trim() || null
+}
+
+/** A file from the API (an attachment, not JSON), with the same session and error handling as `request`. */
+export function download(path: string): Promise<DownloadedFile> {
+  return withSession(async (token) => {
+    let response: Response
+    try {
+      response = await fetch(path, { headers: token ? { Authorization: `Bearer ${token}` } : {}, credentials: 'same-origin' })
+    } catch {
+      throw new ApiError('network_error', 0, NETWORK_MESSAGE)
+    }
+    if (!response.ok) {
+      let payload: unknown
+      try {
+        payload = await readBody(response)
+      } catch {
+        payload = undefined
+      }
+      throw errorFromAnswer(response.status, payload)
+    }
+    try {
+      return { blob: await response.blob(), filename: filenameFromDisposition(response.headers.get('Content-Disposition')) }
+    } catch {
+      throw new ApiError('network_error', 0, NETWORK_MESSAGE)
+    }
+  })
 }
 
 /** Path segments come from routes and e-mailed links: never let them change the path's shape. */

@@ -34,6 +34,23 @@ const routes: RouteRecordRaw[] = [
         meta: { title: 'Home' },
       },
       {
+        path: 'w/:workspaceId/designs',
+        children: [
+          {
+            path: '',
+            name: 'designs',
+            component: () => import('../features/designs/DesignLibraryPage.vue'),
+            meta: { title: 'Designs' },
+          },
+          {
+            path: ':designId',
+            name: 'design-detail',
+            component: () => import('../features/designs/DesignDetailPage.vue'),
+            meta: { title: 'Design' },
+          },
+        ],
+      },
+      {
         path: 'w/:workspaceId/members',
         name: 'members',
         component: () => import('../features/members/MembersPage.vue'),
@@ -112,7 +129,7 @@ export function safeRedirect(value: unknown): string | null {
 }
 
 /** Keeps the typed address in the bar while showing the 404 page. */
-function notFoundAt(to: RouteLocationNormalized): RouteLocationRaw {
+export function notFoundAt(to: RouteLocationNormalized): RouteLocationRaw {
   return {
     name: 'not-found',
     params: { pathMatch: to.path.slice(1).split('/') },
@@ -140,7 +157,7 @@ export const router = createRouter({
   scrollBehavior: (to, _from, saved) => saved ?? (to.hash ? { el: to.hash } : { top: 0 }),
 })
 
-router.beforeEach(async (to) => {
+router.beforeEach(async (to, from) => {
   const auth = useAuthStore()
   await auth.restore()
 
@@ -149,6 +166,11 @@ router.beforeEach(async (to) => {
   }
   if (to.meta.guestOnly && auth.isSignedIn) {
     return safeRedirect(to.query.redirect) ?? '/'
+  }
+
+  // The workspace switcher keeps the kind of page; a design belongs to one workspace, so land on the other's library.
+  if (to.name === 'design-detail' && from.name === 'design-detail' && to.params.workspaceId !== from.params.workspaceId) {
+    return { name: 'designs', params: { workspaceId: to.params.workspaceId } }
   }
 
   const workspaceId = to.params.workspaceId

@@ -9,6 +9,8 @@ export function applyTestEnvironment(environment: NodeJS.ProcessEnv = process.en
   environment.APP_URL ??= `http://127.0.0.1:${environment.PORT}`
   // The API tests sign in many times from one address; the limiter itself is tested with its own small app.
   environment.AUTH_RATE_LIMIT ??= '100000'
+  // A pathological upload is refused after this long; short here so the test of it stays quick.
+  environment.IMPORT_TIMEOUT_MS ??= '4000'
   environment.SMTP_URL = ''
   delete environment.SMTP_URL
 }

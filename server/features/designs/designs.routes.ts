@@ -12,6 +12,8 @@ export const maxUploadFiles = 20
 
 const upload = multer({
   storage: multer.memoryStorage(),
+  // Browsers send file names as UTF-8; multer's default would read them as latin1.
+  defParamCharset: 'utf8',
   limits: { fileSize: maxUploadBytes, files: maxUploadFiles, fields: 10, fieldSize: 1024, parts: maxUploadFiles + 10 },
 })
 
@@ -52,7 +54,8 @@ export function designsRoutes(context: AppContext, requireAuth: RequestHandler):
     if (files.length === 0) throw new AppError('validation_failed', 400, 'Choose at least one SVG file to upload', { 'body.files': ['No file was sent'] })
     const result = await designsService.uploadDesigns(context, request.workspaceAccess!.workspaceId, request.user!.id, files, body)
     if (result.designs.length === 0) {
-      const fields = Object.fromEntries(result.rejected.map((rejection) => [`body.files.${rejection.filename}`, [rejection.message]]))
+      // Keyed by position: two files may share a name, and names may contain dots.
+      const fields = Object.fromEntries(result.rejected.map((rejection, index) => [`body.files.${index}`, [`${rejection.filename}: ${rejection.message}`]]))
       const message = result.rejected.length === 1 ? `${result.rejected[0]!.filename}: ${result.rejected[0]!.message}` : 'None of the files could be used as designs'
       throw new AppError('validation_failed', 400, message, fields)
     }

@@ -1,7 +1,6 @@
 import type { DesignDetail, DesignListResponse, DesignSummary, UploadDesignsResponse } from '../../../shared/schemas/designs.js'
-import { importSvg, SvgReadError, type ImportOptions } from '../../../shared/geometry/importSvg.js'
-import { buildPreview } from '../../../shared/geometry/preview.js'
-import { sanitizeSvg } from '../../../shared/geometry/sanitizeSvg.js'
+import type { ImportOptions } from '../../../shared/geometry/importSvg.js'
+import { defaultImportLimits, importInWorker } from './importInWorker.js'
 import type { AppContext } from '../../context.js'
 import { notFound } from '../../errors.js'
 import * as repo from './designs.repo.js'
@@ -69,7 +68,7 @@ export function sniffSvg(file: UploadedFile): { text: string } | Rejection {
   return { text }
 }
 
-/** Imports each file; the good ones are stored in one transaction, the rest are reported with a reason. */
+/** Imports each file (in a worker thread); the good ones are stored in one transaction, the rest are reported with a reason. */
 export async function uploadDesigns(
   context: AppContext,
   workspaceId: string,
@@ -78,45 +77,49 @@ export async function uploadDesigns(
   options: ImportOptions,
 ): Promise<UploadDesignsResponse> {
   const rejected: Rejection[] = []
-  const rows: repo.NewDesignRow[] = []
+  const readable: { file: UploadedFile; text: string }[] = []
   for (const file of files) {
     const sniffed = sniffSvg(file)
-    if ('code' in sniffed) {
-      rejected.push(sniffed)
-      continue
-    }
-    try {
-      const design = importSvg(sniffed.text, options)
-      rows.push({
-        workspaceId,
-        name: file.originalname.replace(/\.svg$/i, '').slice(0, 120) || 'Untitled design',
-        originalFilename: file.originalname.slice(0, 255),
-        sanitizedSvg: sanitizeSvg(sniffed.text),
-        widthMm: design.widthMm,
-        heightMm: design.heightMm,
-        bboxMinX: design.bbox.minX,
-        bboxMinY: design.bbox.minY,
-        bboxMaxX: design.bbox.maxX,
-        bboxMaxY: design.bbox.maxY,
-        areaMm2: design.areaMm2,
-        cutLengthMm: design.cutLengthMm,
-        pieceCount: design.pieces.length,
-        holeCount: design.holeCount,
-        cutLineCount: design.cutLines.length,
-        toleranceMm: design.toleranceMm,
-        geometry: { pieces: design.pieces, cutLines: design.cutLines },
-        preview: buildPreview(design.pieces, design.cutLines, design.bbox),
-        warnings: design.warnings,
-        createdBy: userId,
-      })
-    } catch (error) {
-      if (error instanceof SvgReadError) rejected.push({ filename: file.originalname, code: error.code, message: error.message })
-      else {
-        context.logger.error({ err: error, filename: file.originalname }, 'design import failed')
-        rejected.push({ filename: file.originalname, code: 'unreadable', message: 'The file could not be read as a design' })
-      }
-    }
+    if ('code' in sniffed) rejected.push(sniffed)
+    else readable.push({ file, text: sniffed.text })
   }
+  const outcomes = await importInWorker(
+    readable.map((entry) => entry.text),
+    options,
+    { ...defaultImportLimits, timeoutMs: context.config.importTimeoutMs },
+  )
+  const rows: repo.NewDesignRow[] = []
+  outcomes.forEach((outcome, index) => {
+    const file = readable[index]!.file
+    if (!outcome.ok) {
+      if (outcome.detail) context.logger.error({ filename: file.originalname, detail: outcome.detail }, 'design import failed')
+      rejected.push({ filename: file.originalname, code: outcome.code, message: outcome.message })
+      return
+    }
+    const { design } = outcome
+    rows.push({
+      workspaceId,
+      name: file.originalname.replace(/\.svg$/i, '').slice(0, 120) || 'Untitled design',
+      originalFilename: file.originalname.slice(0, 255),
+      sanitizedSvg: outcome.sanitizedSvg,
+      widthMm: design.widthMm,
+      heightMm: design.heightMm,
+      bboxMinX: design.bbox.minX,
+      bboxMinY: design.bbox.minY,
+      bboxMaxX: design.bbox.maxX,
+      bboxMaxY: design.bbox.maxY,
+      areaMm2: design.areaMm2,
+      cutLengthMm: design.cutLengthMm,
+      pieceCount: design.pieces.length,
+      holeCount: design.holeCount,
+      cutLineCount: design.cutLines.length,
+      toleranceMm: design.toleranceMm,
+      geometry: { pieces: design.pieces, cutLines: design.cutLines },
+      preview: outcome.preview,
+      warnings: design.warnings,
+      createdBy: userId,
+    })
+  })
   const inserted = await context.db.transaction((tx) => repo.insertDesigns(tx, rows))
   return { designs: inserted.map(toSummary), rejected }
 }
