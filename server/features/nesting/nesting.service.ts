@@ -56,45 +56,60 @@ export async function cancelNestRun(context: AppContext, workspaceId: string, ru
   return getNestRun(context, workspaceId, runId)
 }
 
-/** Area of each sheet's pieces over the sheet's used area (the last sheet or a roll: up to its used length). */
-function perSheetUtilisation(problem: NestProblem, result: NestResult): number[] {
+/**
+ * Figures of a layout with each piece's true area (from the design's curves, not the flattened outline the search
+ * used): per sheet, piece area over the sheet's used area (a roll: up to its used length).
+ */
+function layoutFigures(problem: NestProblem, result: NestResult, areaOfItem: (itemId: string) => number) {
   const areaOf = (ring: [number, number][]) => {
     let twice = 0
     for (let index = 0, previous = ring.length - 1; index < ring.length; previous = index++) twice += (ring[previous]![0] - ring[index]![0]) * (ring[previous]![1] + ring[index]![1])
     return Math.abs(twice / 2)
   }
   const stock = problem.stock
-  return Array.from({ length: result.sheetCount }, (_, sheet) => {
-    const pieces = result.placements.filter((placement) => placement.sheet === sheet)
-    const area = pieces.reduce((sum, placement) => sum + areaOf(placement.outline) - placement.holes.reduce((holes, hole) => holes + areaOf(hole), 0), 0)
+  const perSheet = Array.from({ length: result.sheetCount }, (_, sheet) => {
+    const area = result.placements.filter((placement) => placement.sheet === sheet).reduce((sum, placement) => sum + areaOfItem(placement.itemId), 0)
     let used: number
     if (stock.kind === 'roll') used = stock.width * result.length
     else if (stock.kind === 'sheets') used = stock.width * stock.height
     else used = areaOf(stock.outline) - (stock.holes ?? []).reduce((sum, hole) => sum + areaOf(hole), 0)
     return used > 0 ? area / used : 0
   })
+  const pieceArea = result.placements.reduce((sum, placement) => sum + areaOfItem(placement.itemId), 0)
+  return { perSheet, pieceArea, utilisation: result.usedStockArea > 0 ? pieceArea / result.usedStockArea : 0 }
 }
 
-export function toResultDto(problem: NestProblem, result: NestResult): NestResultDto {
+export function toResultDto(problem: NestProblem, result: NestResult, areaOfItem: (itemId: string) => number): NestResultDto {
   const placements: NestPlacementDto[] = result.placements.map((placement) => {
     const { designId, pieceIndex } = parseItemId(placement.itemId)
     return { designId, pieceIndex, copy: placement.copy, sheet: placement.sheet, angleDeg: placement.angleDeg, mirrored: placement.mirrored, xMm: placement.x, yMm: placement.y, outline: placement.outline, holes: placement.holes }
   })
+  const figures = layoutFigures(problem, result, areaOfItem)
   return {
     mode: result.mode,
     placements,
     unplaced: result.unplaced.map((entry) => ({ ...parseItemId(entry.itemId), copy: entry.copy, reason: entry.reason })),
     lengthMm: result.length,
     sheetCount: result.sheetCount,
-    utilisation: result.utilisation,
-    perSheetUtilisation: perSheetUtilisation(problem, result),
-    pieceAreaMm2: result.pieceArea,
+    utilisation: figures.utilisation,
+    perSheetUtilisation: figures.perSheet,
+    pieceAreaMm2: figures.pieceArea,
     usedStockAreaMm2: result.usedStockArea,
     evaluations: result.evaluations,
     elapsedMs: result.elapsedMs,
     firstFeasibleMs: result.firstFeasibleMs,
     seed: result.seed,
     verified: true,
+  }
+}
+
+/** The true area of a nested item: one piece, or all pieces of a design kept together. */
+function itemAreas(designs: Map<string, DesignForNesting>) {
+  return (itemId: string) => {
+    const { designId, pieceIndex } = parseItemId(itemId)
+    const pieces = designs.get(designId)?.geometry.pieces ?? []
+    if (pieceIndex < 0) return pieces.reduce((sum, piece) => sum + piece.areaMm2, 0)
+    return pieces[pieceIndex]?.areaMm2 ?? 0
   }
 }
 
@@ -146,8 +161,8 @@ export async function processNestRun(context: AppContext, runId: string): Promis
       },
     })
     clearInterval(saver)
-    const dto = toResultDto(problem, result)
-    await repo.saveProgress(context.db, runId, { evaluations: result.evaluations, elapsedMs: result.elapsedMs, bestUtilisation: result.utilisation, placedCount: result.placements.length, bestLengthMm: result.length, bestSheets: result.sheetCount })
+    const dto = toResultDto(problem, result, itemAreas(designs))
+    await repo.saveProgress(context.db, runId, { evaluations: result.evaluations, elapsedMs: result.elapsedMs, bestUtilisation: dto.utilisation, placedCount: result.placements.length, bestLengthMm: result.length, bestSheets: result.sheetCount })
     await repo.finishRun(context.db, runId, { status: abort.signal.aborted ? 'cancelled' : 'succeeded', result: dto })
   } catch (error) {
     clearInterval(saver)
