@@ -79,6 +79,55 @@ function matchOriginal(sorted: ClosedRing[], ring: Ring): ClosedRing | undefined
   return undefined
 }
 
+/** Groups shapes (each a set of paths) whose bounding boxes overlap, directly or through others; O(n log n + overlaps). */
+function overlappingClusters(shapes: IntPath[][]): IntPath[][] {
+  const boxes = shapes.map((paths) => {
+    let minX = Infinity
+    let minY = Infinity
+    let maxX = -Infinity
+    let maxY = -Infinity
+    for (const path of paths) {
+      for (const point of path) {
+        if (point.X < minX) minX = point.X
+        if (point.X > maxX) maxX = point.X
+        if (point.Y < minY) minY = point.Y
+        if (point.Y > maxY) maxY = point.Y
+      }
+    }
+    return { minX, minY, maxX, maxY }
+  })
+  const parent = shapes.map((_, index) => index)
+  const find = (index: number): number => {
+    while (parent[index] !== index) {
+      parent[index] = parent[parent[index]!]!
+      index = parent[index]!
+    }
+    return index
+  }
+  const order = shapes.map((_, index) => index).sort((left, right) => boxes[left]!.minX - boxes[right]!.minX)
+  const active: number[] = []
+  for (const index of order) {
+    const box = boxes[index]!
+    for (let position = active.length - 1; position >= 0; position--) {
+      const other = boxes[active[position]!]!
+      if (other.maxX < box.minX) {
+        active.splice(position, 1)
+        continue
+      }
+      if (other.minY <= box.maxY && box.minY <= other.maxY) parent[find(active[position]!)] = find(index)
+    }
+    active.push(index)
+  }
+  const clusters = new Map<number, IntPath[]>()
+  shapes.forEach((paths, index) => {
+    const root = find(index)
+    const cluster = clusters.get(root)
+    if (cluster) cluster.push(...paths)
+    else clusters.set(root, [...paths])
+  })
+  return [...clusters.values()]
+}
+
 /**
  * Turns drawn shapes into pieces (outer outline + holes) and cut lines.
  * Inside one element its fill rule decides what is filled (W3C SVG 1.1 §11.3); between elements, a contour
@@ -98,7 +147,7 @@ export function buildPieces(
   const cutLines: CutLineGeometry[] = []
   const originals: ClosedRing[] = []
   let vertexCount = 0
-  const resolvedPaths: IntPath[] = []
+  const resolvedShapes: IntPath[][] = []
   const seenAreas = new Set<string>()
   let duplicateCount = 0
 
@@ -139,15 +188,12 @@ export function buildPieces(
       continue
     }
     seenAreas.add(key)
-    resolvedPaths.push(...solution)
+    resolvedShapes.push(solution)
   }
   if (duplicateCount > 0) warn('duplicate_outline', 'Outlines drawn more than once on top of each other were read once', duplicateCount)
 
   const pieces: PieceGeometry[] = []
-  if (resolvedPaths.length > 0) {
-    const clipper = union(resolvedPaths, 'evenodd')
-    const tree = new ClipperLib.PolyTree()
-    clipper.Execute(ClipperLib.ClipType.ctUnion, tree, ClipperLib.PolyFillType.pftEvenOdd, ClipperLib.PolyFillType.pftEvenOdd)
+  if (resolvedShapes.length > 0) {
     originals.sort((left, right) => left.bbox.minX - right.bbox.minX)
     let resolvedCount = 0
     let speckCount = 0
@@ -184,7 +230,14 @@ export function buildPieces(
         bbox: boundingBox(outline),
       })
     }
-    for (const node of tree.Childs()) visitOuter(node)
+    // Only elements whose extents meet can interact, so each cluster is combined on its own: the same answer as one
+    // combined pass, much faster for a sheet of thousands of separate shapes.
+    for (const cluster of overlappingClusters(resolvedShapes)) {
+      const clipper = union(cluster, 'evenodd')
+      const tree = new ClipperLib.PolyTree()
+      clipper.Execute(ClipperLib.ClipType.ctUnion, tree, ClipperLib.PolyFillType.pftEvenOdd, ClipperLib.PolyFillType.pftEvenOdd)
+      for (const node of tree.Childs()) visitOuter(node)
+    }
     if (resolvedCount > 0) {
       warn('resolved_outline', 'Crossing or overlapping outlines were resolved; the cut length of the changed outlines is measured on the resolved outline', resolvedCount)
     }

@@ -299,6 +299,35 @@ export function download(path: string): Promise<DownloadedFile> {
   })
 }
 
+/**
+ * An open server-sent event stream, read with fetch because EventSource cannot send the Authorization header.
+ * Same session handling as `request`; a failed answer is an ApiError, aborting rejects with an AbortError.
+ */
+export function openEventStream(path: string, signal?: AbortSignal): Promise<ReadableStream<Uint8Array>> {
+  return withSession(async (token) => {
+    const headers: Record<string, string> = { Accept: 'text/event-stream' }
+    if (token) headers.Authorization = `Bearer ${token}`
+    let response: Response
+    try {
+      response = await fetch(path, { headers, credentials: 'same-origin', cache: 'no-store', signal })
+    } catch (error) {
+      if (isAbortError(error)) throw error
+      throw new ApiError('network_error', 0, NETWORK_MESSAGE)
+    }
+    if (!response.ok) {
+      let payload: unknown
+      try {
+        payload = await readBody(response)
+      } catch {
+        payload = undefined
+      }
+      throw errorFromAnswer(response.status, payload)
+    }
+    if (!response.body) throw new ApiError('bad_response', response.status, BAD_RESPONSE_MESSAGE)
+    return response.body
+  })
+}
+
 /** Path segments come from routes and e-mailed links: never let them change the path's shape. */
 export function segment(value: string): string {
   return encodeURIComponent(value)
