@@ -51,6 +51,13 @@ const routes: RouteRecordRaw[] = [
         ],
       },
       {
+        // `?run=<id>` shows that run, so a layout can be shared by its address and survives a reload.
+        path: 'w/:workspaceId/nest',
+        name: 'nest-run',
+        component: () => import('../features/nesting/NestRunPage.vue'),
+        meta: { title: 'Nest run' },
+      },
+      {
         path: 'w/:workspaceId/members',
         name: 'members',
         component: () => import('../features/members/MembersPage.vue'),
