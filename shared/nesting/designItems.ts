@@ -96,7 +96,8 @@ export function problemFromDesigns(request: CreateNestRunRequest, designs: Map<s
     spacing: request.spacingMm ?? 2,
     margin: request.marginMm ?? 5,
     excludedZones: request.excludedZones ?? [],
-    // Flattened curves carry many points; for the search 0.1 mm is plenty (shapes grow by it, so it stays safe).
-    simplifyTolerance: 0.1,
+    // Flattened curves carry many points and the cost of a no-fit region grows with the product of two shapes' point
+    // counts; 0.3 mm keeps it affordable. Shapes grow by it, so no piece ever comes closer than the spacing.
+    simplifyTolerance: 0.3,
   }
 }

@@ -52,6 +52,7 @@ interface Evaluation {
 export function nest(problem: NestProblem, options: NestOptions = {}): NestResult {
   validate(problem)
   const started = Date.now()
+  const constructionDeadlineMs = options.timeBudgetMs ?? (options.maxEvaluations ? Infinity : 10_000)
   const seed = options.seed ?? 1
   const random = createRandom(seed)
   const margin = problem.margin ?? 0
@@ -144,6 +145,11 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
     for (let step = fromStep; step < order.length; step++) {
       const instanceIndex = order[step]!
       const instance = instances[instanceIndex]!
+      // Out of time (or asked to stop) before every piece found a place: the rest are reported, never left hanging.
+      if (Date.now() - started > constructionDeadlineMs || options.shouldStop?.()) {
+        for (let rest = step; rest < order.length; rest++) unplaced.push(instances[order[rest]!]!)
+        break
+      }
       let chosen: Candidate | undefined
       const sheetsToTry = container.kind === 'sheet' ? Math.min(sheetCount + 1, container.maxSheets) : 1
       for (let sheet = 0; sheet < sheetsToTry && !chosen; sheet++) {
@@ -196,7 +202,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       let moved = false
       const byRightEdge = [...placed].sort((left, right) => rightEdgeOf(right) - rightEdgeOf(left))
       for (const part of byRightEdge) {
-        if (options.shouldStop?.()) break
+        if (options.shouldStop?.() || Date.now() - started > constructionDeadlineMs) break
         const others = placed.filter((other) => other !== part)
         const currentScore = part.x + part.variant.fitBounds.maxX + 0.05 * (part.y + part.variant.fitBounds.maxY)
         let bestCandidate: Candidate | undefined
@@ -340,6 +346,16 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
 
   // After a compression the settling pass rarely finds anything and costs seconds on a hundred pieces.
   const final = compresses ? best.evaluation : compact(best.evaluation)
+  const fitsByItem = new Map<number, boolean>()
+  /** Whether the instance would fit on an empty stock: if so, only time (or the stop) kept it out. */
+  const fitsEmptyStock = (instance: Instance) => {
+    let fits = fitsByItem.get(instance.itemIndex)
+    if (fits === undefined) {
+      fits = variants[instance.itemIndex]!.some((variant) => bestPositionOnSheet(variant, -1, [], obstacles, container, cache, container.minX + variant.fitBounds.maxX + 2) !== undefined)
+      fitsByItem.set(instance.itemIndex, fits)
+    }
+    return fits
+  }
   const placements: Placement[] = final.placed.map((part) => {
     const item = problem.items[part.instance.itemIndex]!
     const x = part.x / scale
@@ -362,7 +378,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   return {
     mode: stock.kind === 'polygon' ? 'polygon' : stock.kind,
     placements,
-    unplaced: final.unplaced.map((instance) => ({ itemId: problem.items[instance.itemIndex]!.id, copy: instance.copy, reason: 'It does not fit on the stock' })),
+    unplaced: final.unplaced.map((instance) => ({ itemId: problem.items[instance.itemIndex]!.id, copy: instance.copy, reason: fitsEmptyStock(instance) ? 'Not placed within the time budget: give the run more time' : container.kind === 'sheet' && final.sheetCount >= container.maxSheets ? 'No sheet left for it' : 'It does not fit on the stock' })),
     length: realLength,
     sheetCount: final.sheetCount,
     utilisation: used > 0 ? placedPieceArea / used : 0,

@@ -110,8 +110,47 @@ export interface VariantSettings {
   simplify: number
 }
 
+/**
+ * Drops the holes no piece of the job could ever sit in (its bounding box fits no variant's): they cannot change
+ * where anything goes, and each hole multiplies the cost of every no-fit region of its piece.
+ */
+function dropUselessHoles(all: Variant[][]): void {
+  const sizes = all.flat().map((variant) => {
+    const box = boxOfPath(variant.spacedShape.outer)
+    return [box.maxX - box.minX, box.maxY - box.minY] as const
+  })
+  for (const variant of all.flat()) {
+    variant.spacedShape.holes = variant.spacedShape.holes.filter((hole) => {
+      const box = boxOfPath(hole)
+      const width = box.maxX - box.minX
+      const height = box.maxY - box.minY
+      return sizes.some(([pieceWidth, pieceHeight]) => pieceWidth <= width && pieceHeight <= height)
+    })
+  }
+}
+
+function boxOfPath(path: IntPath) {
+  let minX = Infinity
+  let minY = Infinity
+  let maxX = -Infinity
+  let maxY = -Infinity
+  for (const point of path) {
+    if (point.X < minX) minX = point.X
+    if (point.Y < minY) minY = point.Y
+    if (point.X > maxX) maxX = point.X
+    if (point.Y > maxY) maxY = point.Y
+  }
+  return { minX, minY, maxX, maxY }
+}
+
 /** Every allowed orientation of every item, prepared once per job. */
 export function buildVariants(items: NestItem[], settings: VariantSettings): Variant[][] {
+  const all = buildAllVariants(items, settings)
+  dropUselessHoles(all)
+  return all
+}
+
+function buildAllVariants(items: NestItem[], settings: VariantSettings): Variant[][] {
   let nextId = 0
   return items.map((item, itemIndex) => {
     const mirrors = item.mirror === 'always' ? [true] : item.mirror === 'allowed' ? [false, true] : [false]

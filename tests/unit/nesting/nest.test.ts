@@ -97,6 +97,18 @@ describe('sheets, margins, spacing and excluded zones', () => {
     expect(result.unplaced).toEqual([{ itemId: 'banner', copy: 0, reason: expect.any(String) }])
   })
 
+  it('reports the pieces it had no time to place instead of running past a stop', () => {
+    const many: NestProblem = { items: [{ id: 'tag', outline: square(20), quantity: 10, rotationsDeg: [0] }], stock: { kind: 'roll', width: 100 } }
+    let checks = 0
+    // Stop is asked for from the fourth check on: a few pieces get placed, the rest are reported, nothing hangs.
+    const result = nest(many, { maxEvaluations: 1, shouldStop: () => ++checks > 3 })
+    expect(verifyLayout(many, result).problems).toEqual([])
+    expect(result.placements.length).toBeGreaterThan(0)
+    expect(result.placements.length).toBeLessThan(10)
+    expect(result.unplaced.length + result.placements.length).toBe(10)
+    expect(result.unplaced.every((entry) => /time budget/.test(entry.reason))).toBe(true)
+  })
+
   it('places small pieces inside the hole of a frame', () => {
     const frame: [number, number][] = square(100)
     const hole: [number, number][] = [[20, 20], [20, 80], [80, 80], [80, 20]]
