@@ -27,3 +27,13 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
     },
   }
 }
+
+/** Signs in through the form, as a person would, and waits for the workspace home. */
+export async function signInThroughForm(page: import('playwright-core').Page, baseUrl: string, email: string, password: string): Promise<void> {
+  await page.goto(`${baseUrl}/signin`)
+  await page.getByTestId('signin-email').fill(email)
+  await page.getByTestId('signin-password').fill(password)
+  await page.getByTestId('signin-submit').click()
+  await page.waitForURL(/\/w\/[^/]+$/)
+}
+

@@ -2,7 +2,7 @@ import path from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { baseUrl, signUp, type SignedUpUser } from '../api/helpers.js'
-import { artifactsDir, launchBrowser } from './browser.js'
+import { artifactsDir, launchBrowser, signInThroughForm } from './browser.js'
 
 /**
  * A 40 mm ring: outer circle r = 20 mm, hole r = 5 mm, one path filled even-odd, in a 50 mm document.
@@ -54,11 +54,7 @@ describe('design library in the browser', () => {
 
   it('uploads two SVG files, reads the ring exactly, renames, tags and deletes it', async () => {
     // Arrange: sign in through the form and open the library from the navigation.
-    await page.goto(`${baseUrl}/signin`)
-    await page.getByTestId('signin-email').fill(owner.email)
-    await page.getByTestId('signin-password').fill(owner.password)
-    await page.getByTestId('signin-submit').click()
-    await page.waitForURL(/\/w\/[^/]+$/)
+    await signInThroughForm(page, baseUrl, owner.email, owner.password)
     await page.getByTestId('nav-designs').click()
     await page.waitForURL(/\/w\/[^/]+\/designs$/)
     await page.getByTestId('design-library-empty').waitFor()

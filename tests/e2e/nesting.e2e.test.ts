@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { uploadDesignsResponseSchema } from '../../shared/schemas/designs.js'
 import { addMember, api, baseUrl, bearer, signUp, testPassword, type SignedUpUser } from '../api/helpers.js'
-import { artifactsDir, launchBrowser } from './browser.js'
+import { artifactsDir, launchBrowser, signInThroughForm } from './browser.js'
 
 /**
  * A 40 mm × 25 mm label with 4 mm corner radii, one piece, in a 50 × 35 mm document. Its area is
@@ -70,11 +70,7 @@ describe('nest run in the browser', () => {
 
   it('nests 12 copies of a label onto one A4 sheet, follows the progress and draws the checked layout', async () => {
     // Arrange: sign in through the form and open Nest run from the navigation.
-    await page.goto(`${baseUrl}/signin`)
-    await page.getByTestId('signin-email').fill(owner.email)
-    await page.getByTestId('signin-password').fill(owner.password)
-    await page.getByTestId('signin-submit').click()
-    await page.waitForURL(/\/w\/[^/]+$/)
+    await signInThroughForm(page, baseUrl, owner.email, owner.password)
     await page.getByTestId('nav-nest').click()
     await page.waitForURL(/\/w\/[^/]+\/nest$/)
     await page.getByTestId('nest-outcome-empty').waitFor()
