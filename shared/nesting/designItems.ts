@@ -97,7 +97,8 @@ export function problemFromDesigns(request: CreateNestRunRequest, designs: Map<s
     margin: request.marginMm ?? 5,
     excludedZones: request.excludedZones ?? [],
     // Flattened curves carry many points and the cost of a no-fit region grows with the product of two shapes' point
-    // counts; 0.3 mm keeps it affordable. Shapes grow by it, so no piece ever comes closer than the spacing.
-    simplifyTolerance: 0.3,
+    // counts. Shapes grow by the tolerance so no piece comes closer than the spacing; 0.1 mm is the value checked on
+    // coarse integer grids (with 0.3 mm a long roll's coarser grid let keyring fobs come 0.5 mm too close).
+    simplifyTolerance: 0.1,
   }
 }

@@ -6,6 +6,7 @@ import { innerFitRegion } from './noFitRegion.js'
 import { createRandom } from './random.js'
 import { buildVariants, type Variant } from './variants.js'
 import type { NestOptions, NestProblem, NestResult, Placement, RingPoints } from './types.js'
+import { verifyLayout } from './verify.js'
 
 export class NestInputError extends Error {}
 
@@ -307,6 +308,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   }
   report()
 
+  const beforeCompression = best.evaluation
   if (compresses) {
     const compressionStarted = Date.now()
     const compressionEvaluations = evaluations
@@ -356,6 +358,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
     }
     return fits
   }
+  const resultOf = (final: Evaluation): NestResult => {
   const placements: Placement[] = final.placed.map((part) => {
     const item = problem.items[part.instance.itemIndex]!
     const x = part.x / scale
@@ -389,4 +392,10 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
     firstFeasibleMs,
     seed,
   }
+  }
+  let result = resultOf(final)
+  // The compression measures overlap on the search outlines; should it ever end on a layout the exact check
+  // refuses, the layout it started from (feasible by construction) is returned instead.
+  if (final !== beforeCompression && compresses && !verifyLayout(problem, result).ok) result = resultOf(beforeCompression)
+  return result
 }
