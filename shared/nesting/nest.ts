@@ -53,7 +53,10 @@ interface Evaluation {
 export function nest(problem: NestProblem, options: NestOptions = {}): NestResult {
   validate(problem)
   const started = Date.now()
-  const constructionDeadlineMs = options.timeBudgetMs ?? (options.maxEvaluations ? Infinity : 10_000)
+  const budgetMs = options.timeBudgetMs ?? (options.maxEvaluations ? Infinity : 10_000)
+  // A complete first layout is worth a late answer: the construction may run past the budget, up to this hard limit,
+  // after which the pieces still waiting are reported as not placed in time.
+  const constructionDeadlineMs = budgetMs === Infinity ? Infinity : Math.max(3 * budgetMs, budgetMs + 15_000)
   const seed = options.seed ?? 1
   const random = createRandom(seed)
   const margin = problem.margin ?? 0
@@ -203,7 +206,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       let moved = false
       const byRightEdge = [...placed].sort((left, right) => rightEdgeOf(right) - rightEdgeOf(left))
       for (const part of byRightEdge) {
-        if (options.shouldStop?.() || Date.now() - started > constructionDeadlineMs) break
+        if (options.shouldStop?.() || Date.now() - started > budgetMs) break
         const others = placed.filter((other) => other !== part)
         const currentScore = part.x + part.variant.fitBounds.maxX + 0.05 * (part.y + part.variant.fitBounds.maxY)
         let bestCandidate: Candidate | undefined
