@@ -6,6 +6,7 @@ import { cpus, loadavg, totalmem } from 'node:os'
 import path from 'node:path'
 import { parseArgs } from 'node:util'
 import { importSvg } from '../shared/geometry/importSvg.js'
+import { signedArea } from '../shared/geometry/polygon.js'
 import { nest } from '../shared/nesting/nest.js'
 import { verifyLayout } from '../shared/nesting/verify.js'
 import type { NestItem } from '../shared/nesting/types.js'
@@ -19,11 +20,7 @@ const seed = Number(values.seed)
 // Best-known densities from the team's REFERENCES.md (Elkeran 2013, EJOR 231; values from memory, as marked there).
 const bestKnown: Record<string, number> = { dagli: 89.5, fu: 92.4, jakobs1: 89.1, jakobs2: 87.7, marques: 90.6, shapes0: 68.8, shirts: 89.0 }
 
-const ringArea = (ring: [number, number][]) => {
-  let twice = 0
-  for (let index = 0, previous = ring.length - 1; index < ring.length; previous = index++) twice += (ring[previous]![0] - ring[index]![0]) * (ring[previous]![1] + ring[index]![1])
-  return Math.abs(twice / 2)
-}
+const ringArea = (ring: [number, number][]) => Math.abs(signedArea(ring))
 
 const rows: string[] = []
 const gaps: number[] = []

@@ -7,16 +7,12 @@ import { createRandom } from './random.js'
 import { buildVariants, type Variant } from './variants.js'
 import type { NestOptions, NestProblem, NestResult, Placement, RingPoints } from './types.js'
 import { verifyLayout } from './verify.js'
+import { signedArea } from '../geometry/polygon.js'
+
+const ringArea = (ring: RingPoints) => Math.abs(signedArea(ring))
 
 export class NestInputError extends Error {}
 
-function ringArea(ring: RingPoints): number {
-  let twice = 0
-  for (let index = 0, previous = ring.length - 1; index < ring.length; previous = index++) {
-    twice += (ring[previous]![0] - ring[index]![0]) * (ring[previous]![1] + ring[index]![1])
-  }
-  return Math.abs(twice / 2)
-}
 
 function validate(problem: NestProblem) {
   if (problem.items.length === 0) throw new NestInputError('Add at least one item to nest')

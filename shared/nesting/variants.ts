@@ -1,4 +1,5 @@
 import { offsetPaths, orient, pathArea, toIntPath, type IntPath, type IntShape } from './intGeometry.js'
+import { boundingBox } from '../geometry/polygon.js'
 import type { NestItem, RingPoints, Vec } from './types.js'
 
 /** One way an item can lie on the stock: an angle and a side, with its shapes prepared for the search. */
@@ -69,19 +70,6 @@ function simplifyRing(ring: RingPoints, tolerance: number): RingPoints {
   return result.length >= 3 ? result : ring
 }
 
-function boundsOfRing(ring: RingPoints) {
-  let minX = Infinity
-  let minY = Infinity
-  let maxX = -Infinity
-  let maxY = -Infinity
-  for (const [x, y] of ring) {
-    minX = Math.min(minX, x)
-    minY = Math.min(minY, y)
-    maxX = Math.max(maxX, x)
-    maxY = Math.max(maxY, y)
-  }
-  return { minX, minY, maxX, maxY }
-}
 
 /**
  * Grows an outline (and shrinks its holes) by `grow` integer units; holes that close up are dropped.
@@ -159,7 +147,7 @@ function buildAllVariants(items: NestItem[], settings: VariantSettings): Variant
     for (const mirrored of mirrors) {
       for (const angleDeg of angles.length ? angles : [0]) {
         const turned = transformRing(item.outline, angleDeg, mirrored)
-        const bounds = boundsOfRing(turned)
+        const bounds = boundingBox(turned)
         const shift: Vec = [-bounds.minX, -bounds.minY]
         const move = (ring: RingPoints): RingPoints => ring.map(([x, y]) => [x + shift[0], y + shift[1]])
         const outline = move(turned)

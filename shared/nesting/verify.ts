@@ -1,4 +1,5 @@
 import polygonClipping, { type Polygon } from 'polygon-clipping'
+import { boundingBox, signedArea } from '../geometry/polygon.js'
 import { transformRing } from './variants.js'
 import type { NestProblem, NestResult, Placement, RingPoints } from './types.js'
 
@@ -15,26 +16,9 @@ export interface VerifyReport {
   minGap: number
 }
 
-const areaOfRing = (ring: RingPoints) => {
-  let twice = 0
-  for (let index = 0, previous = ring.length - 1; index < ring.length; previous = index++) twice += (ring[previous]![0] - ring[index]![0]) * (ring[previous]![1] + ring[index]![1])
-  return Math.abs(twice / 2)
-}
+const areaOfRing = (ring: RingPoints) => Math.abs(signedArea(ring))
 const areaOfPolygons = (polygons: Polygon[]) => polygons.reduce((sum, polygon) => sum + areaOfRing(polygon[0] as RingPoints) - polygon.slice(1).reduce((holes, hole) => holes + areaOfRing(hole as RingPoints), 0), 0)
 
-function bounds(ring: RingPoints) {
-  let minX = Infinity
-  let minY = Infinity
-  let maxX = -Infinity
-  let maxY = -Infinity
-  for (const [x, y] of ring) {
-    minX = Math.min(minX, x)
-    minY = Math.min(minY, y)
-    maxX = Math.max(maxX, x)
-    maxY = Math.max(maxY, y)
-  }
-  return { minX, minY, maxX, maxY }
-}
 
 function segmentDistance(a: RingPoints[number], b: RingPoints[number], c: RingPoints[number], d: RingPoints[number]): number {
   const pointToSegment = (p: RingPoints[number], s: RingPoints[number], e: RingPoints[number]) => {
@@ -58,8 +42,8 @@ function boundaryGap(first: RingPoints[], second: RingPoints[], limit: number): 
   let best = Infinity
   for (const ringA of first) {
     for (const ringB of second) {
-      const boxA = bounds(ringA)
-      const boxB = bounds(ringB)
+      const boxA = boundingBox(ringA)
+      const boxB = boundingBox(ringB)
       if (boxA.minX - limit > boxB.maxX || boxB.minX - limit > boxA.maxX || boxA.minY - limit > boxB.maxY || boxB.minY - limit > boxA.maxY) continue
       for (let i = 0; i < ringA.length; i++) {
         const a = ringA[i]!
@@ -112,7 +96,7 @@ export function verifyLayout(problem: NestProblem, result: NestResult): VerifyRe
   const polygonOf = (placement: Placement): Polygon => [placement.outline, ...placement.holes] as Polygon
   const stock = problem.stock
   for (const placement of result.placements) {
-    const box = bounds(placement.outline)
+    const box = boundingBox(placement.outline)
     const label = `${placement.itemId}#${placement.copy}`
     if (stock.kind === 'roll') {
       if (box.minY < margin - linearSlack || box.maxY > stock.width - margin + linearSlack || box.minX < margin - linearSlack) problems.push(`${label} is outside the usable roll`)
@@ -133,7 +117,7 @@ export function verifyLayout(problem: NestProblem, result: NestResult): VerifyRe
     }
   }
 
-  const placements = result.placements.map((placement) => ({ placement, box: bounds(placement.outline), area: areaOfRing(placement.outline) }))
+  const placements = result.placements.map((placement) => ({ placement, box: boundingBox(placement.outline), area: areaOfRing(placement.outline) }))
   placements.sort((left, right) => left.box.minX - right.box.minX)
   for (let i = 0; i < placements.length; i++) {
     const first = placements[i]!

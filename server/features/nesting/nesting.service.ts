@@ -1,6 +1,7 @@
 import { createNestRunRequestSchema, type CreateNestRunRequest, type NestPlacementDto, type NestProgressDto, type NestResultDto, type NestRunDto } from '../../../shared/schemas/nesting.js'
 import { parseItemId, problemFromDesigns, type DesignForNesting } from '../../../shared/nesting/designItems.js'
 import type { NestProblem, NestResult } from '../../../shared/nesting/types.js'
+import { signedArea } from '../../../shared/geometry/polygon.js'
 import type { AppContext } from '../../context.js'
 import { AppError, notFound } from '../../errors.js'
 import { NestRunError, runNestInThreads } from './runInThreads.js'
@@ -61,11 +62,8 @@ export async function cancelNestRun(context: AppContext, workspaceId: string, ru
  * used): per sheet, piece area over the sheet's used area (a roll: up to its used length).
  */
 function layoutFigures(problem: NestProblem, result: NestResult, areaOfItem: (itemId: string) => number) {
-  const areaOf = (ring: [number, number][]) => {
-    let twice = 0
-    for (let index = 0, previous = ring.length - 1; index < ring.length; previous = index++) twice += (ring[previous]![0] - ring[index]![0]) * (ring[previous]![1] + ring[index]![1])
-    return Math.abs(twice / 2)
-  }
+  const areaOf = (ring: [number, number][]) => Math.abs(signedArea(ring))
+
   const stock = problem.stock
   const perSheet = Array.from({ length: result.sheetCount }, (_, sheet) => {
     const area = result.placements.filter((placement) => placement.sheet === sheet).reduce((sum, placement) => sum + areaOfItem(placement.itemId), 0)
