@@ -1,5 +1,5 @@
 import ClipperLib from 'clipper-lib'
-import { boundsOf, translatePath, type IntPath } from './intGeometry.js'
+import { boundsOf, translatePath, type IntPath, type IntShape } from './intGeometry.js'
 import { noFitRegion } from './noFitRegion.js'
 import type { Variant } from './variants.js'
 
@@ -51,6 +51,7 @@ export interface CachedRegion {
 export class NoFitCache {
   private readonly regions = new Map<number, CachedRegion>()
   private readonly obstacleRegions = new Map<string, CachedRegion>()
+  private readonly boxes = new WeakMap<IntShape, { minX: number; minY: number; maxX: number; maxY: number }>()
   constructor(private readonly shrink: number) {}
 
   get(fixed: Variant, moving: Variant): CachedRegion {
@@ -62,6 +63,25 @@ export class NoFitCache {
       this.regions.set(key, region)
     }
     return region
+  }
+
+  /**
+   * A box that holds the no-fit region, without computing it: the bounding box of A ⊕ (−B) is the sum of the two
+   * boxes. Lets the search skip far-away pieces before their region is ever built.
+   */
+  boundsOf(fixed: IntShape, moving: IntShape): { minX: number; minY: number; maxX: number; maxY: number } {
+    const a = this.boxOf(fixed)
+    const b = this.boxOf(moving)
+    return { minX: a.minX - b.maxX, minY: a.minY - b.maxY, maxX: a.maxX - b.minX, maxY: a.maxY - b.minY }
+  }
+
+  private boxOf(shape: IntShape) {
+    let box = this.boxes.get(shape)
+    if (!box) {
+      box = boundsOf([shape.outer])
+      this.boxes.set(shape, box)
+    }
+    return box
   }
 
   forObstacle(obstacle: Obstacle, moving: Variant): CachedRegion {
@@ -89,9 +109,19 @@ export interface Candidate {
 }
 
 /**
+ * What one construction has learnt so far: per (sheet, variant), the x below which no free position is left.
+ * Valid only while pieces are added, never removed (free space only shrinks), so a construction makes a new one.
+ */
+export type FilledUpTo = Map<number, number>
+
+/**
  * Bottom-left-fill with gravity: the free positions of a variant are its inner-fit region minus the no-fit
  * regions of everything on the sheet; among their vertices, the one that keeps the layout shortest wins
  * (right edge first, then height). Returns undefined when the variant fits nowhere on this sheet.
+ *
+ * On rectangles the search walks windows along x from the left, each a boolean difference with only the no-fit
+ * regions that reach into it (a region's box is known before the region is built), and stops once no later window
+ * can beat the best point found: the cost per piece then depends on its neighbours, not on the whole layout.
  */
 export function bestPositionOnSheet(
   variant: Variant,
@@ -102,57 +132,86 @@ export function bestPositionOnSheet(
   cache: NoFitCache,
   stripLength: number,
   verticalWeight = 0.05,
+  filledUpTo?: FilledUpTo,
 ): Candidate | undefined {
   const bounds = variant.fitBounds
-  let fitPaths: IntPath[]
-  let windowMinX: number
-  let windowMaxX: number
-  let windowMinY: number
-  let windowMaxY: number
-  let clampRange: { minX: number; minY: number; maxX: number; maxY: number } | undefined
   if (container.kind === 'region') {
-    fitPaths = container.regionFor!(variant)
+    const fitPaths = container.regionFor!(variant)
     if (fitPaths.length === 0) return undefined
     const box = boundsOf(fitPaths)
-    windowMinX = box.minX
-    windowMaxX = box.maxX
-    windowMinY = box.minY
-    windowMaxY = box.maxY
-  } else {
-    // The real range of the reference point comes from the real outline's extent (its bounding box starts at the
-    // reference point), not from the grown fit shape: a mitred offset can stay flush with the outline at sharp
-    // corners. The window is one unit larger on each side so that a piece exactly as tall as the roll still has a
-    // strip of free area (a zero-area window would vanish in the boolean step); chosen points are clamped back.
-    const realMaxY = container.maxY - variant.extentY
-    const realMaxX = container.maxX - variant.extentX
-    if (realMaxY < container.minY || realMaxX < container.minX) return undefined
-    clampRange = { minX: container.minX, minY: container.minY, maxX: realMaxX, maxY: realMaxY }
-    windowMinX = container.minX - 1
-    windowMinY = container.minY - 1
-    windowMaxY = realMaxY + 1
-    // On a strip, no position further right than "just after everything placed" is ever the best one.
-    windowMaxX = container.kind === 'strip' ? Math.min(Math.max(windowMinX + 2, stripLength - bounds.minX + 1), realMaxX + 1) : realMaxX + 1
-    fitPaths = [
-      [
-        { X: windowMinX, Y: windowMinY },
-        { X: windowMaxX, Y: windowMinY },
-        { X: windowMaxX, Y: windowMaxY },
-        { X: windowMinX, Y: windowMaxY },
-      ],
-    ]
+    const found = bestInWindow(variant, sheet, placed, obstacles, cache, fitPaths, box, undefined, verticalWeight)
+    return found === 'empty' ? undefined : found
   }
+  // The real range of the reference point comes from the real outline's extent (its bounding box starts at the
+  // reference point), not from the grown fit shape: a mitred offset can stay flush with the outline at sharp
+  // corners. The window is one unit larger on each side so that a piece exactly as tall as the roll still has a
+  // strip of free area (a zero-area window would vanish in the boolean step); chosen points are clamped back.
+  const realMaxY = container.maxY - variant.extentY
+  const realMaxX = container.maxX - variant.extentX
+  if (realMaxY < container.minY || realMaxX < container.minX) return undefined
+  const clampRange = { minX: container.minX, minY: container.minY, maxX: realMaxX, maxY: realMaxY }
+  const minY = container.minY - 1
+  const maxY = realMaxY + 1
+  // On a strip, no position further right than "just after everything placed" is ever the best one.
+  const endX = container.kind === 'strip' ? Math.min(Math.max(container.minX + 1, stripLength - bounds.minX + 1), realMaxX + 1) : realMaxX + 1
+  const memoKey = sheet * 1_000_003 + variant.id
+  const windowWidth = Math.max(2 * (bounds.maxX - bounds.minX), 16)
+  let windowStart = Math.max(container.minX - 1, filledUpTo?.get(memoKey) ?? -Infinity)
+  let best: Candidate | undefined
+  while (windowStart < endX) {
+    // No point at or beyond this window can score better than this.
+    if (best && windowStart + bounds.maxX + verticalWeight * (container.minY + bounds.maxY) - 2 >= best.score) break
+    const windowEnd = Math.min(windowStart + windowWidth, endX)
+    const box = { minX: windowStart, minY, maxX: windowEnd, maxY }
+    const window: IntPath = [
+      { X: box.minX, Y: box.minY },
+      { X: box.maxX, Y: box.minY },
+      { X: box.maxX, Y: box.maxY },
+      { X: box.minX, Y: box.maxY },
+    ]
+    const found = bestInWindow(variant, sheet, placed, obstacles, cache, [window], box, clampRange, verticalWeight)
+    if (found === 'empty') {
+      if (!best && filledUpTo) filledUpTo.set(memoKey, windowEnd - 1)
+    } else if (found && (!best || found.score < best.score)) {
+      best = found
+    }
+    windowStart = windowEnd - 1
+  }
+  return best
+}
 
+/** The best vertex of the free area inside one window; 'empty' when the window holds no free area at all. */
+function bestInWindow(
+  variant: Variant,
+  sheet: number,
+  placed: PlacedPart[],
+  obstacles: Obstacle[],
+  cache: NoFitCache,
+  fitPaths: IntPath[],
+  window: { minX: number; minY: number; maxX: number; maxY: number },
+  clampRange: { minX: number; minY: number; maxX: number; maxY: number } | undefined,
+  verticalWeight: number,
+): Candidate | 'empty' | undefined {
+  const bounds = variant.fitBounds
   const clipper = new ClipperLib.Clipper()
   clipper.AddPaths(fitPaths, ClipperLib.PolyType.ptSubject, true)
-  const addRegion = (region: CachedRegion, dx: number, dy: number) => {
-    if (region.maxX + dx < windowMinX || region.minX + dx > windowMaxX || region.maxY + dy < windowMinY || region.minY + dy > windowMaxY) return
-    for (const path of region.paths) clipper.AddPath(translatePath(path, dx, dy), ClipperLib.PolyType.ptClip, true)
+  const outside = (box: { minX: number; minY: number; maxX: number; maxY: number }, dx: number, dy: number) =>
+    box.maxX + dx <= window.minX || box.minX + dx >= window.maxX || box.maxY + dy <= window.minY || box.minY + dy >= window.maxY
+  for (const part of placed) {
+    if (part.sheet !== sheet) continue
+    if (outside(cache.boundsOf(part.variant.spacedShape, variant.spacedShape), part.x, part.y)) continue
+    const region = cache.get(part.variant, variant)
+    if (outside(region, part.x, part.y)) continue
+    for (const path of region.paths) clipper.AddPath(translatePath(path, part.x, part.y), ClipperLib.PolyType.ptClip, true)
   }
-  for (const part of placed) if (part.sheet === sheet) addRegion(cache.get(part.variant, variant), part.x, part.y)
-  for (const obstacle of obstacles) addRegion(cache.forObstacle(obstacle, variant), 0, 0)
+  for (const obstacle of obstacles) {
+    const region = cache.forObstacle(obstacle, variant)
+    if (outside(region, 0, 0)) continue
+    for (const path of region.paths) clipper.AddPath(path, ClipperLib.PolyType.ptClip, true)
+  }
   const free: IntPath[] = []
   clipper.Execute(ClipperLib.ClipType.ctDifference, free, ClipperLib.PolyFillType.pftNonZero, ClipperLib.PolyFillType.pftNonZero)
-  if (free.length === 0) return undefined
+  if (free.length === 0) return 'empty'
 
   let best: Candidate | undefined
   for (const path of free) {

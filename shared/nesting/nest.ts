@@ -1,6 +1,7 @@
 import ClipperLib from 'clipper-lib'
 import { compressStrip } from './compress.js'
-import { bestPositionOnSheet, NoFitCache, type Candidate, type Container, type Instance, type Obstacle, type PlacedPart } from './construct.js'
+import { bestPositionOnSheet, NoFitCache, type Candidate, type FilledUpTo, type Container, type Instance, type Obstacle, type PlacedPart } from './construct.js'
+import { boundingOctagon } from './convexParts.js'
 import { chooseScale, orient, toIntPath } from './intGeometry.js'
 import { innerFitRegion } from './noFitRegion.js'
 import { createRandom } from './random.js'
@@ -52,7 +53,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   const budgetMs = options.timeBudgetMs ?? (options.maxEvaluations ? Infinity : 10_000)
   // A complete first layout is worth a late answer: the construction may run past the budget, up to this hard limit,
   // after which the pieces still waiting are reported as not placed in time.
-  const constructionDeadlineMs = budgetMs === Infinity ? Infinity : Math.max(3 * budgetMs, budgetMs + 15_000)
+  let constructionDeadlineMs = budgetMs === Infinity ? Infinity : Math.max(3 * budgetMs, budgetMs + 15_000)
   const seed = options.seed ?? 1
   const random = createRandom(seed)
   const margin = problem.margin ?? 0
@@ -126,8 +127,8 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   const pieceArea = instances.reduce((sum, instance) => sum + itemArea[instance.itemIndex]!, 0)
 
   /** Which variants of an instance to try: all when there are few, else the preferred one and its quarter turns. */
-  const variantChoices = (instance: Instance, preferred: number): Variant[] => {
-    const all = variants[instance.itemIndex]!
+  const variantChoices = (instance: Instance, preferred: number, table: Variant[][] = variants): Variant[] => {
+    const all = table[instance.itemIndex]!
     if (all.length <= 8) return all
     const quarter = Math.max(1, Math.round(all.length / 4))
     const picked = [0, quarter, 2 * quarter, 3 * quarter].map((step) => all[(preferred + step) % all.length]!)
@@ -137,11 +138,12 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   const rightEdgeOf = (part: PlacedPart) => part.x + part.variant.fitBounds.maxX
 
   /** Places instances from `fromStep` on, keeping the earlier placements of `previous`. */
-  const construct = (order: number[], preferences: number[], previous: Evaluation | undefined, fromStep: number): Evaluation => {
+  const construct = (order: number[], preferences: number[], previous: Evaluation | undefined, fromStep: number, table: Variant[][] = variants): Evaluation => {
     const placed: PlacedPart[] = previous ? previous.placed.slice(0, countPlacedBefore(previous, order, fromStep)) : []
     const unplaced: Instance[] = previous ? previous.unplaced.filter((instance) => order.indexOf(instances.indexOf(instance)) < fromStep) : []
     let sheetCount = placed.reduce((max, part) => Math.max(max, part.sheet + 1), 0)
     let stripLength = placed.reduce((max, part) => Math.max(max, rightEdgeOf(part)), container.minX)
+    const filledUpTo: FilledUpTo = new Map()
     for (let step = fromStep; step < order.length; step++) {
       const instanceIndex = order[step]!
       const instance = instances[instanceIndex]!
@@ -153,8 +155,8 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       let chosen: Candidate | undefined
       const sheetsToTry = container.kind === 'sheet' ? Math.min(sheetCount + 1, container.maxSheets) : 1
       for (let sheet = 0; sheet < sheetsToTry && !chosen; sheet++) {
-        for (const variant of variantChoices(instance, preferences[instanceIndex]!)) {
-          const candidate = bestPositionOnSheet(variant, sheet, placed, obstacles, container, cache, stripLength + variant.fitBounds.maxX + 2)
+        for (const variant of variantChoices(instance, preferences[instanceIndex]!, table)) {
+          const candidate = bestPositionOnSheet(variant, sheet, placed, obstacles, container, cache, stripLength + variant.fitBounds.maxX + 2, undefined, filledUpTo)
           if (candidate && (!chosen || candidate.score < chosen.score)) chosen = candidate
         }
       }
@@ -224,12 +226,42 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
     return cost <= evaluation.cost ? { ...evaluation, placed, length, cost } : evaluation
   }
 
+  const utilisationOf = (evaluation: Evaluation) => {
+    const used = usedStockArea(evaluation)
+    return used > 0 ? placedArea(evaluation) / used : 0
+  }
+  const placedArea = (evaluation: Evaluation) => evaluation.placed.reduce((sum, part) => sum + itemArea[part.instance.itemIndex]!, 0)
+  const usedStockArea = (evaluation: Evaluation) => {
+    if (stock.kind === 'roll') return stock.width * (evaluation.length / scale + margin)
+    if (stock.kind === 'sheets') return stock.width * stock.height * Math.max(0, evaluation.sheetCount - 1) + stock.height * (evaluation.length / scale + margin)
+    return ringArea(stock.outline) - (stock.holes ?? []).reduce((sum, hole) => sum + ringArea(hole), 0)
+  }
   let evaluations = 0
   let order = [...initialOrder]
   let preferences = instances.map(() => 0)
+  // A quick first layout on the convex hulls of the pieces: a hull's no-fit region is one convex sum, so even
+  // hundreds of detailed pieces are laid out in about a second, and the hulls hold the real shapes, so the layout is
+  // feasible as it stands. The true-shape construction that follows replaces it when it does better (it nearly
+  // always does), and may then keep to the budget: a complete layout is already in hand.
+  let hullEvaluation: Evaluation | undefined
+  let firstFeasibleMs: number | undefined
+  if (variants.some((list) => list.some((variant) => variant.spacedShape.outer.length > 8 || variant.spacedShape.holes.length > 0))) {
+    const idOffset = variants.flat().length
+    const hullVariants = variants.map((list) =>
+      list.map((variant) => ({ ...variant, id: idOffset + variant.id, spacedShape: { outer: boundingOctagon(variant.spacedShape.outer), holes: [] } })),
+    )
+    hullEvaluation = construct(order, preferences, undefined, 0, hullVariants)
+    evaluations++
+    if (hullEvaluation.unplaced.length === 0) {
+      firstFeasibleMs = Date.now() - started
+      constructionDeadlineMs = Math.min(constructionDeadlineMs, budgetMs)
+      options.onProgress?.({ evaluations, elapsedMs: firstFeasibleMs, bestUtilisation: utilisationOf(hullEvaluation), placedCount: hullEvaluation.placed.length, bestLength: hullEvaluation.length / scale + (container.kind === 'sheet' ? 0 : margin), bestSheets: hullEvaluation.sheetCount })
+    }
+  }
   let current = construct(order, preferences, undefined, 0)
   evaluations++
-  const firstFeasibleMs = Date.now() - started
+  if (hullEvaluation && hullEvaluation.cost < current.cost) current = hullEvaluation
+  firstFeasibleMs ??= Date.now() - started
   let best = { evaluation: current, order: [...order], preferences: [...preferences] }
 
   const timeBudgetMs = options.timeBudgetMs ?? (options.maxEvaluations ? Infinity : 10_000)
@@ -243,16 +275,6 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       bestSheets: best.evaluation.sheetCount,
       placedCount: best.evaluation.placed.length,
     })
-  const utilisationOf = (evaluation: Evaluation) => {
-    const used = usedStockArea(evaluation)
-    return used > 0 ? placedArea(evaluation) / used : 0
-  }
-  const placedArea = (evaluation: Evaluation) => evaluation.placed.reduce((sum, part) => sum + itemArea[part.instance.itemIndex]!, 0)
-  const usedStockArea = (evaluation: Evaluation) => {
-    if (stock.kind === 'roll') return stock.width * (evaluation.length / scale + margin)
-    if (stock.kind === 'sheets') return stock.width * stock.height * Math.max(0, evaluation.sheetCount - 1) + stock.height * (evaluation.length / scale + margin)
-    return ringArea(stock.outline) - (stock.holes ?? []).reduce((sum, hole) => sum + ringArea(hole), 0)
-  }
   report()
 
   // Local search: swap two pieces in the order or turn one, rebuild from the first changed step, keep what is

@@ -20,15 +20,21 @@ const areaOfRing = (ring: RingPoints) => Math.abs(signedArea(ring))
 const areaOfPolygons = (polygons: Polygon[]) => polygons.reduce((sum, polygon) => sum + areaOfRing(polygon[0] as RingPoints) - polygon.slice(1).reduce((holes, hole) => holes + areaOfRing(hole as RingPoints), 0), 0)
 
 
-function segmentDistance(a: RingPoints[number], b: RingPoints[number], c: RingPoints[number], d: RingPoints[number]): number {
-  const pointToSegment = (p: RingPoints[number], s: RingPoints[number], e: RingPoints[number]) => {
-    const dx = e[0] - s[0]
-    const dy = e[1] - s[1]
-    const lengthSquared = dx * dx + dy * dy
-    const t = lengthSquared === 0 ? 0 : Math.max(0, Math.min(1, ((p[0] - s[0]) * dx + (p[1] - s[1]) * dy) / lengthSquared))
-    return Math.hypot(p[0] - (s[0] + t * dx), p[1] - (s[1] + t * dy))
-  }
-  const cross = (o: RingPoints[number], p: RingPoints[number], q: RingPoints[number]) => (p[0] - o[0]) * (q[1] - o[1]) - (p[1] - o[1]) * (q[0] - o[0])
+type Point = RingPoints[number]
+
+function pointToSegment(p: Point, s: Point, e: Point): number {
+  const dx = e[0] - s[0]
+  const dy = e[1] - s[1]
+  const lengthSquared = dx * dx + dy * dy
+  const t = lengthSquared === 0 ? 0 : Math.max(0, Math.min(1, ((p[0] - s[0]) * dx + (p[1] - s[1]) * dy) / lengthSquared))
+  return Math.hypot(p[0] - (s[0] + t * dx), p[1] - (s[1] + t * dy))
+}
+
+function cross(o: Point, p: Point, q: Point): number {
+  return (p[0] - o[0]) * (q[1] - o[1]) - (p[1] - o[1]) * (q[0] - o[0])
+}
+
+function segmentDistance(a: Point, b: Point, c: Point, d: Point): number {
   const d1 = cross(c, d, a)
   const d2 = cross(c, d, b)
   const d3 = cross(a, b, c)
@@ -48,6 +54,8 @@ function boundaryGap(first: RingPoints[], second: RingPoints[], limit: number): 
       for (let i = 0; i < ringA.length; i++) {
         const a = ringA[i]!
         const b = ringA[(i + 1) % ringA.length]!
+        // A segment further than `limit` from the other ring's box cannot set a gap below the limit.
+        if (Math.min(a[0], b[0]) - limit > boxB.maxX || Math.max(a[0], b[0]) + limit < boxB.minX || Math.min(a[1], b[1]) - limit > boxB.maxY || Math.max(a[1], b[1]) + limit < boxB.minY) continue
         for (let j = 0; j < ringB.length; j++) {
           const distance = segmentDistance(a, b, ringB[j]!, ringB[(j + 1) % ringB.length]!)
           if (distance < best) best = distance
