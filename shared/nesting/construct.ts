@@ -133,6 +133,8 @@ export function bestPositionOnSheet(
   stripLength: number,
   verticalWeight = 0.05,
   filledUpTo?: FilledUpTo,
+  /** Only a position scoring below this is of interest (another variant already reached it): saves windows. */
+  toBeat = Infinity,
 ): Candidate | undefined {
   const bounds = variant.fitBounds
   if (container.kind === 'region') {
@@ -160,7 +162,7 @@ export function bestPositionOnSheet(
   let best: Candidate | undefined
   while (windowStart < endX) {
     // No point at or beyond this window can score better than this.
-    if (best && windowStart + bounds.maxX + verticalWeight * (container.minY + bounds.maxY) - 2 >= best.score) break
+    if (windowStart + bounds.maxX + verticalWeight * (container.minY + bounds.maxY) - 2 >= Math.min(best?.score ?? Infinity, toBeat)) break
     const windowEnd = Math.min(windowStart + windowWidth, endX)
     const box = { minX: windowStart, minY, maxX: windowEnd, maxY }
     const window: IntPath = [

@@ -156,7 +156,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       const sheetsToTry = container.kind === 'sheet' ? Math.min(sheetCount + 1, container.maxSheets) : 1
       for (let sheet = 0; sheet < sheetsToTry && !chosen; sheet++) {
         for (const variant of variantChoices(instance, preferences[instanceIndex]!, table)) {
-          const candidate = bestPositionOnSheet(variant, sheet, placed, obstacles, container, cache, stripLength + variant.fitBounds.maxX + 2, undefined, filledUpTo)
+          const candidate = bestPositionOnSheet(variant, sheet, placed, obstacles, container, cache, stripLength + variant.fitBounds.maxX + 2, undefined, filledUpTo, chosen?.score)
           if (candidate && (!chosen || candidate.score < chosen.score)) chosen = candidate
         }
       }
@@ -247,8 +247,11 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   let firstFeasibleMs: number | undefined
   if (variants.some((list) => list.some((variant) => variant.spacedShape.outer.length > 8 || variant.spacedShape.holes.length > 0))) {
     const idOffset = variants.flat().length
+    // A half turn gives nearly the same octagon, so the quick pass tries each orientation modulo 180° once.
     const hullVariants = variants.map((list) =>
-      list.map((variant) => ({ ...variant, id: idOffset + variant.id, spacedShape: { outer: boundingOctagon(variant.spacedShape.outer), holes: [] } })),
+      list
+        .filter((variant, index) => list.findIndex((other) => other.mirrored === variant.mirrored && other.angleDeg % 180 === variant.angleDeg % 180) === index)
+        .map((variant) => ({ ...variant, id: idOffset + variant.id, spacedShape: { outer: boundingOctagon(variant.spacedShape.outer), holes: [] } })),
     )
     hullEvaluation = construct(order, preferences, undefined, 0, hullVariants)
     evaluations++
