@@ -177,6 +177,8 @@ export function bestPositionOnSheet(
     } else if (found && (!best || found.score < best.score)) {
       best = found
     }
+    if (windowEnd >= endX) break
+    // Windows overlap by one unit so that no position between them is missed.
     windowStart = windowEnd - 1
   }
   return best
