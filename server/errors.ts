@@ -7,6 +7,7 @@ export class AppError extends Error {
     readonly status: number,
     message: string,
     readonly fields?: Record<string, string[]>,
+    readonly details?: Record<string, unknown>,
   ) {
     super(message)
     this.name = 'AppError'

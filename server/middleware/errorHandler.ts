@@ -3,7 +3,9 @@ import type { ApiErrorBody } from '../../shared/schemas/error.js'
 import { AppError } from '../errors.js'
 
 function send(response: Parameters<RequestHandler>[1], error: AppError) {
-  const body: ApiErrorBody = { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } }
+  const body: ApiErrorBody = {
+    error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}), ...(error.details ? { details: error.details } : {}) },
+  }
   response.status(error.status).json(body)
 }
 

@@ -9,6 +9,8 @@ export const apiErrorSchema = z.object({
     message: z.string(),
     /** Per-field messages, keyed by the field's dotted path (`body.email`, `params.workspaceId`). */
     fields: z.record(z.string(), z.array(z.string())).optional(),
+    /** Facts a client can act on, per code (e.g. `layout_version_conflict` carries the current version). */
+    details: z.record(z.string(), z.unknown()).optional(),
   }),
 })
 export type ApiErrorBody = z.infer<typeof apiErrorSchema>
@@ -19,6 +21,7 @@ export const errorCodes = [
   'forbidden',
   'not_found',
   'conflict',
+  'layout_version_conflict',
   'rate_limited',
   'payload_too_large',
   'internal',
