@@ -1,0 +1,97 @@
+import type { DesignForCutPlan } from '../../../shared/cutplan/contours.js'
+import { planLayout, type LayoutCutPlan as Plan } from '../../../shared/cutplan/plan.js'
+import { cutPlanOptionsSchema, profileWith } from '../../../shared/cutplan/profile.js'
+import { sheetToHpgl } from '../../../shared/cutplan/hpgl.js'
+import { sheetToSvg } from '../../../shared/cutplan/svg.js'
+import type { CutPlanExportQuery, CutPlanQuery, CutPlanResponse } from '../../../shared/schemas/cutplan.js'
+import type { AppContext } from '../../context.js'
+import { invalidField, notFound } from '../../errors.js'
+import { findLayout } from '../layouts/layouts.repo.js'
+import { findDesignsForCutPlan } from './cutplan.repo.js'
+import { jobSheetPdf } from './jobSheet.js'
+
+interface PlannedLayout {
+  layout: NonNullable<Awaited<ReturnType<typeof findLayout>>>['layout']
+  designs: Map<string, DesignForCutPlan>
+  plan: Plan
+}
+
+/** Reads the saved layout and its designs and plans every sheet with the default profile and the query's overrides. */
+async function planSavedLayout(context: AppContext, workspaceId: string, layoutId: string, query: CutPlanQuery): Promise<PlannedLayout> {
+  const found = await findLayout(context.db, workspaceId, layoutId)
+  if (!found) throw notFound('Layout')
+  const { layout } = found
+  const ids = [...new Set(layout.placements.map((placement) => placement.designId))]
+  const rows = await findDesignsForCutPlan(context.db, workspaceId, ids)
+  const designs = new Map(rows.map((row) => [row.id, { name: row.name, geometry: row.geometry }]))
+  const profile = profileWith({
+    cutSpeedMmS: query.cutSpeedMmS,
+    travelSpeedMmS: query.travelSpeedMmS,
+    accelerationMmS2: query.accelerationMmS2,
+    liftLowerS: query.liftLowerS,
+    cornerAngleDeg: query.cornerAngleDeg,
+    origin: query.origin,
+    swapAxes: query.swapAxes,
+  })
+  const options = cutPlanOptionsSchema.parse({
+    passes: query.passes,
+    overcutMm: query.overcutMm,
+    order: query.order,
+    commonLine: query.commonLine,
+    weedingGapMm: query.weedingGapMm,
+    weedingLines: query.weedingLines,
+  })
+  return { layout, designs, plan: planLayout({ name: layout.name, stock: layout.stock, placements: layout.placements, options: layout.options }, designs, profile, options) }
+}
+
+export async function getCutPlan(context: AppContext, workspaceId: string, layoutId: string, query: CutPlanQuery): Promise<CutPlanResponse> {
+  const { layout, plan } = await planSavedLayout(context, workspaceId, layoutId, query)
+  return {
+    layoutId: layout.id,
+    layoutName: layout.name,
+    version: layout.version,
+    profile: plan.profile,
+    options: plan.options,
+    sheets: plan.sheets.map((sheet) => sheet.figures),
+    totals: plan.totals,
+  }
+}
+
+export interface ExportFile {
+  contentType: string
+  filename: string
+  body: string | Buffer
+}
+
+/** A file name people can keep: the layout's name reduced to safe characters, the sheet number counted from 1. */
+function fileStem(name: string): string {
+  const safe = name
+    .normalize('NFKD')
+    .replace(/[^\w\s-]/g, '')
+    .trim()
+    .replace(/\s+/g, '-')
+    .toLowerCase()
+    .slice(0, 60)
+  return safe || 'layout'
+}
+
+export async function exportCutPlan(context: AppContext, workspaceId: string, layoutId: string, query: CutPlanExportQuery): Promise<ExportFile> {
+  const { layout, designs, plan } = await planSavedLayout(context, workspaceId, layoutId, query)
+  const sheetCount = plan.sheets.length
+  if (query.sheet === undefined && query.format !== 'pdf') throw invalidField('query.sheet', `Choose a sheet (0 to ${sheetCount - 1}): ${query.format.toUpperCase()} files hold one sheet each`)
+  if (query.sheet !== undefined && query.sheet >= sheetCount) {
+    throw invalidField('query.sheet', sheetCount === 1 ? 'This layout has one sheet: use sheet 0' : `This layout has ${sheetCount} sheets: use a sheet from 0 to ${sheetCount - 1}`)
+  }
+  const stem = fileStem(layout.name)
+  const sheetPart = query.sheet === undefined ? '' : `-sheet-${query.sheet + 1}`
+  if (query.format === 'svg') {
+    const sheet = plan.sheets[query.sheet!]!
+    return { contentType: 'image/svg+xml; charset=utf-8', filename: `${stem}${sheetPart}.svg`, body: sheetToSvg(sheet, `${layout.name} · sheet ${query.sheet! + 1}`) }
+  }
+  if (query.format === 'hpgl') {
+    return { contentType: 'application/vnd.hp-hpgl', filename: `${stem}${sheetPart}.plt`, body: sheetToHpgl(plan.sheets[query.sheet!]!, plan.profile) }
+  }
+  const sheets = query.sheet === undefined ? plan.sheets : [plan.sheets[query.sheet]!]
+  const body = await jobSheetPdf({ layoutName: layout.name, stock: layout.stock, plan, sheets, designs, placements: layout.placements })
+  return { contentType: 'application/pdf', filename: `${stem}${sheetPart}-job-sheet.pdf`, body }
+}
