@@ -5,12 +5,16 @@ import path from 'node:path'
 import { and, eq, inArray } from 'drizzle-orm'
 import { loadConfig } from '../server/config.js'
 import type { AppContext } from '../server/context.js'
-import { designs, memberships, users, workspaces } from '../server/db/schema/index.js'
+import { designs, layouts, memberships, users, workspaces } from '../server/db/schema/index.js'
 import { hashPassword } from '../server/features/auth/passwords.js'
 import { updateDesign, uploadDesigns } from '../server/features/designs/designs.service.js'
+import { createLayout } from '../server/features/layouts/layouts.service.js'
+import { createLayoutRequestSchema } from '../shared/schemas/layouts.js'
 import { startRuntime } from '../server/runtime.js'
 import { demoDesigns, demoDesignsDirectory } from '../fixtures/demo-designs.js'
 import { demoPassword, demoStudio } from '../fixtures/demo-studio.js'
+import { seedStockAndMaterials } from './seedStock.js'
+import { demoLayoutRequest, demoLayouts, type DemoDesignForLayout } from '../fixtures/demo-layouts.js'
 
 const config = loadConfig()
 // The same context the server builds, without the job queue or the mail catcher: seeding sends no mail.
@@ -71,12 +75,44 @@ async function seedDesigns(workspaceId: string, ownerId: string): Promise<{ adde
   return { added, kept: [...existingNames] }
 }
 
+/** Saves each demo layout the workspace does not yet hold (by name) through the layouts service, which computes the figures. */
+async function seedLayouts(workspaceId: string, ownerId: string): Promise<{ added: number; kept: number }> {
+  const present = await db
+    .select({ name: layouts.name })
+    .from(layouts)
+    .where(and(eq(layouts.workspaceId, workspaceId), inArray(layouts.name, demoLayouts.map((layout) => layout.name))))
+  const existingNames = new Set(present.map((row) => row.name))
+  const rows = await db
+    .select({ id: designs.id, name: designs.name, keepTogether: designs.keepTogether, geometry: designs.geometry, minX: designs.bboxMinX, minY: designs.bboxMinY, maxX: designs.bboxMaxX, maxY: designs.bboxMaxY })
+    .from(designs)
+    .where(eq(designs.workspaceId, workspaceId))
+  const designsByName = new Map<string, DemoDesignForLayout>(
+    rows.map((row) => [row.name, { id: row.id, keepTogether: row.keepTogether, geometry: row.geometry, bbox: { minX: row.minX, minY: row.minY, maxX: row.maxX, maxY: row.maxY } }]),
+  )
+  let added = 0
+  for (const layout of demoLayouts) {
+    if (existingNames.has(layout.name)) continue
+    const missing = layout.items.filter((item) => !designsByName.has(item.design)).map((item) => item.design)
+    if (missing.length > 0) {
+      console.log(`==> demo layout "${layout.name}" skipped: the workspace has no design named ${missing.join(', ')}`)
+      continue
+    }
+    await createLayout(context, workspaceId, ownerId, createLayoutRequestSchema.parse(demoLayoutRequest(layout, designsByName)))
+    added += 1
+  }
+  return { added, kept: existingNames.size }
+}
+
 try {
   const { workspaceId, ownerId } = await seedStudio()
   const { added, kept } = await seedDesigns(workspaceId, ownerId)
+  const stock = await seedStockAndMaterials(context, workspaceId)
+  const layoutCounts = await seedLayouts(workspaceId, ownerId)
   console.log(`==> demo studio "${demoStudio.name}" is ready. Demo sign-ins (password for all: ${demoPassword}):`)
   for (const member of demoStudio.members) console.log(`    ${member.role.padEnd(6)}  ${member.email}`)
   console.log(`==> demo designs: ${added.length} added, ${kept.length} already present`)
+  console.log(`==> demo stock: ${stock.stockAdded} items added; test cuts: ${stock.testCutsAdded} added`)
+  console.log(`==> demo layouts and templates: ${layoutCounts.added} added, ${layoutCounts.kept} already present`)
 } finally {
   await runtime.close()
 }

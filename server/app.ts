@@ -12,6 +12,11 @@ import { authRoutes, meRoutes } from './features/auth/auth.routes.js'
 import { workspacesRoutes } from './features/workspaces/workspaces.routes.js'
 import { designsRoutes } from './features/designs/designs.routes.js'
 import { nestingRoutes } from './features/nesting/nesting.routes.js'
+import { stockRoutes } from './features/stock/stock.routes.js'
+import { favouritesRoutes, materialsRoutes } from './features/materials/materials.routes.js'
+import { layoutsRoutes, maxLayoutBodyBytes } from './features/layouts/layouts.routes.js'
+import { cutPlanRoutes } from './features/cutplan/cutplan.routes.js'
+import { comparisonsRoutes } from './features/comparisons/comparisons.routes.js'
 import { invitesRoutes } from './features/invites/invites.routes.js'
 import { devOutboxRoutes, systemRoutes } from './features/system/system.routes.js'
 
@@ -53,6 +58,8 @@ export function createApp(context: AppContext): Express {
       strictTransportSecurity: context.config.appUrl.startsWith('https://'),
     }),
   )
+  // Read first with its own limit (the general parser then finds the body read and passes).
+  app.use('/api/workspaces/:workspaceId/layouts', express.json({ limit: maxLayoutBodyBytes }))
   app.use(express.json({ limit: '1mb' }))
   app.use(cookieParser())
 
@@ -65,6 +72,12 @@ export function createApp(context: AppContext): Express {
   api.use('/me', meRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/designs', designsRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/nest-runs', nestingRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/stock', stockRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/materials', materialsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/favourites', favouritesRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/layouts', cutPlanRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/layouts', layoutsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/comparisons', comparisonsRoutes(context, signedIn))
   api.use('/workspaces', workspacesRoutes(context, signedIn))
   api.use('/invites', invitesRoutes(context, optionalAuth(passport)))
   api.use('/dev', devOutboxRoutes(context))

@@ -58,6 +58,69 @@ const routes: RouteRecordRaw[] = [
         meta: { title: 'Nest run' },
       },
       {
+        path: 'w/:workspaceId/stock',
+        name: 'stock',
+        component: () => import('../features/stock/StockPage.vue'),
+        meta: { title: 'Stock' },
+      },
+      {
+        path: 'w/:workspaceId/materials',
+        children: [
+          {
+            path: '',
+            name: 'materials',
+            component: () => import('../features/materials/MaterialsPage.vue'),
+            meta: { title: 'Materials' },
+          },
+          {
+            path: ':materialId',
+            name: 'material-detail',
+            component: () => import('../features/materials/MaterialDetailPage.vue'),
+            meta: { title: 'Material' },
+          },
+        ],
+      },
+      {
+        path: 'w/:workspaceId/layouts',
+        children: [
+          {
+            path: '',
+            name: 'layouts',
+            component: () => import('../features/layouts/LayoutListPage.vue'),
+            meta: { title: 'Layouts' },
+          },
+          {
+            path: ':layoutId',
+            name: 'layout-editor',
+            component: () => import('../features/layouts/LayoutEditorPage.vue'),
+            meta: { title: 'Layout' },
+          },
+        ],
+      },
+      {
+        path: 'w/:workspaceId/comparisons',
+        children: [
+          {
+            path: '',
+            name: 'comparisons',
+            component: () => import('../features/comparisons/ComparisonListPage.vue'),
+            meta: { title: 'Stock comparisons' },
+          },
+          {
+            path: 'new',
+            name: 'comparison-new',
+            component: () => import('../features/comparisons/ComparisonNewPage.vue'),
+            meta: { title: 'New stock comparison' },
+          },
+          {
+            path: ':comparisonId',
+            name: 'comparison-detail',
+            component: () => import('../features/comparisons/ComparisonDetailPage.vue'),
+            meta: { title: 'Stock comparison' },
+          },
+        ],
+      },
+      {
         path: 'w/:workspaceId/members',
         name: 'members',
         component: () => import('../features/members/MembersPage.vue'),
@@ -178,6 +241,9 @@ router.beforeEach(async (to, from) => {
   // The workspace switcher keeps the kind of page; a design belongs to one workspace, so land on the other's library.
   if (to.name === 'design-detail' && from.name === 'design-detail' && to.params.workspaceId !== from.params.workspaceId) {
     return { name: 'designs', params: { workspaceId: to.params.workspaceId } }
+  }
+  if (to.name === 'material-detail' && from.name === 'material-detail' && to.params.workspaceId !== from.params.workspaceId) {
+    return { name: 'materials', params: { workspaceId: to.params.workspaceId } }
   }
 
   const workspaceId = to.params.workspaceId
