@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import jwt from 'jsonwebtoken'
 import { loadConfig } from '../../server/config.js'
+import { ageRefreshRotations } from './dbFixtures.js'
 import { api, bearer, refreshCookieFrom, signIn, signUp, testPassword, tokenFromLink, uniqueEmail, waitForMail } from './helpers.js'
 
 const config = loadConfig()
@@ -65,11 +66,23 @@ describe('tokens', () => {
     const rotatedCookie = refreshCookieFrom(first)
     expect(rotatedCookie).not.toBe(person.refreshCookie)
 
+    await ageRefreshRotations(person.user.id, 60)
     const replay = await api().post('/api/auth/refresh').set('Cookie', person.refreshCookie)
     expect(replay.status).toBe(401)
     // A replayed token means it leaked: the whole family, including the newest token, is revoked.
     const afterReplay = await api().post('/api/auth/refresh').set('Cookie', rotatedCookie)
     expect(afterReplay.status).toBe(401)
+  })
+
+  it('gives a second tab that refreshes with the just-rotated token a session too, without revoking anything', async () => {
+    const person = await signUp('two-tabs')
+    // The second tab sends the token the first has just rotated (it has not seen the new cookie yet).
+    const first = await api().post('/api/auth/refresh').set('Cookie', person.refreshCookie)
+    const second = await api().post('/api/auth/refresh').set('Cookie', person.refreshCookie)
+    expect([first.status, second.status]).toEqual([200, 200])
+    expect((await api().post('/api/auth/refresh').set('Cookie', refreshCookieFrom(first))).status).toBe(200)
+    const again = await api().post('/api/auth/refresh').set('Cookie', refreshCookieFrom(second))
+    expect(again.status).toBe(200)
   })
 
   it('answers a refresh without any cookie with 204 (nothing to resume), not a session', async () => {

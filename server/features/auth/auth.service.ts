@@ -57,6 +57,9 @@ export async function signIn(context: AppContext, input: { email: string; passwo
   return issueSession(context, context.db, user, randomUUID())
 }
 
+/** How long after its rotation a refresh token still counts as a concurrent use rather than a replay. */
+export const refreshReuseGraceMs = 10_000
+
 /**
  * Rotates a refresh token: the presented one is retired and a new one issued in the same family.
  * Presenting a retired token means it was copied: the whole family is revoked.
@@ -66,13 +69,17 @@ export async function refresh(context: AppContext, refreshToken: string | undefi
   const outcome = await context.db.transaction(async (tx) => {
     const session = await repo.findRefreshSession(tx, hashToken(refreshToken))
     if (!session || session.revokedAt || session.expiresAt <= new Date()) return { kind: 'invalid' as const }
-    if (session.replacedAt) {
+    // Two tabs (or two quick reloads) may present the same token before either sees the new cookie: within a few
+    // seconds of its rotation a retired token is answered with another token of the family instead of being
+    // treated as stolen (common practice for rotating refresh tokens).
+    const concurrent = session.replacedAt !== null && Date.now() - session.replacedAt.getTime() < refreshReuseGraceMs
+    if (session.replacedAt && !concurrent) {
       await repo.revokeRefreshFamily(tx, session.familyId)
       return { kind: 'reused' as const }
     }
     const user = await repo.findUserById(tx, session.userId)
     if (!user) return { kind: 'invalid' as const }
-    await repo.markRefreshSessionReplaced(tx, session.id)
+    if (!concurrent) await repo.markRefreshSessionReplaced(tx, session.id)
     return { kind: 'ok' as const, issued: await issueSession(context, tx, user, session.familyId) }
   })
   if (outcome.kind === 'reused') context.logger.warn('a retired refresh token was presented; its session family is revoked')
