@@ -1,3 +1,4 @@
+import { readFile } from 'node:fs/promises'
 import path from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
@@ -178,6 +179,16 @@ describe('layout editor in the browser', () => {
     expect(await page.getByTestId('layout-placed').textContent()).toBe('2 of 2')
     expect(await page.getByTestId('layout-save-state').getAttribute('data-state')).toBe('saved')
     expect(await page.getByTestId('layout-draft-banner').count()).toBe(0)
+
+    // Act: export the sheet as SVG from the editor.
+    await page.getByTestId('layout-export').click()
+    const [downloaded] = await Promise.all([page.waitForEvent('download'), page.getByTestId('layout-export-svg-0').click()])
+    const exported = await readFile(await downloaded.path())
+
+    // Assert: an SVG sized in millimetres (W3C SVG units) with both pieces in it.
+    expect(downloaded.suggestedFilename()).toMatch(/\.svg$/)
+    expect(exported.toString('utf8')).toMatch(/<svg[^>]*width="[0-9.]+mm"/)
+    expect(exported.toString('utf8').match(/<g\b/g)?.length ?? 0).toBeGreaterThanOrEqual(2)
     expect(consoleErrors).toEqual([])
   }, 120_000)
 

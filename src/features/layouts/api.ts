@@ -1,4 +1,4 @@
-import { request, segment } from '../../api/client'
+import { download, request, segment, type DownloadedFile } from '../../api/client'
 import {
   layoutDetailSchema,
   layoutListResponseSchema,
@@ -45,4 +45,13 @@ export function deleteLayout(workspaceId: string, layoutId: string): Promise<voi
 /** Duplicates a layout, starts a layout from a template, or keeps a layout as a template (`isTemplate`). */
 export function copyLayout(workspaceId: string, layoutId: string, body: { name?: string; isTemplate: boolean }): Promise<LayoutDetail> {
   return request(`${layoutPath(workspaceId, layoutId)}/copy`, { method: 'POST', body, schema: layoutDetailSchema })
+}
+
+export type LayoutExportFormat = 'svg' | 'hpgl' | 'pdf'
+
+/** A cut file of one sheet (SVG, HP-GL) or the printable job sheet (PDF; every sheet when `sheet` is left out), from the saved layout. */
+export function downloadLayoutExport(workspaceId: string, layoutId: string, format: LayoutExportFormat, sheet?: number): Promise<DownloadedFile> {
+  const query = new URLSearchParams({ format })
+  if (sheet !== undefined) query.set('sheet', String(sheet))
+  return download(`${layoutPath(workspaceId, layoutId)}/export?${query.toString()}`)
 }
