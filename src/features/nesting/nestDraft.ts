@@ -8,6 +8,7 @@ import {
 } from '../../../shared/schemas/index'
 import { mmToUnit, unitToMm } from '../../../shared/units'
 import { trimmedNumber } from '../designs/measures'
+import { standardStockSizes } from '../../../shared/materials/standardSizes'
 
 export type RotationPolicy = (typeof rotationPolicies)[number]
 export type MirrorPolicy = (typeof mirrorPolicies)[number]
@@ -43,18 +44,14 @@ export interface NestStockPreset {
 }
 
 /**
- * Common sizes on a studio's shelf. ISO 216: A4 is 210 × 297 mm, A3 297 × 420 mm; US Letter is 8.5 × 11 in
- * (ANSI/ASME Y14.1); inch sizes are exact through 1 in = 25.4 mm.
+ * Common sizes on a studio's shelf: the shared standard sizes (shared/materials/standardSizes.ts, with their
+ * sources), as nest-run stocks. Rolls are labelled with their width in both units, as the run form shows them.
  */
-export const stockPresets: readonly NestStockPreset[] = [
-  { id: 'a4', kind: 'sheets', label: 'A4', widthMm: 210, heightMm: 297 },
-  { id: 'a3', kind: 'sheets', label: 'A3', widthMm: 297, heightMm: 420 },
-  { id: 'us-letter', kind: 'sheets', label: 'US Letter', widthMm: 215.9, heightMm: 279.4 },
-  { id: 'sheet-12x12in', kind: 'sheets', label: '12 × 12 in', widthMm: 304.8, heightMm: 304.8 },
-  { id: 'sheet-12x24in', kind: 'sheets', label: '12 × 24 in', widthMm: 304.8, heightMm: 609.6 },
-  { id: 'roll-12in', kind: 'roll', label: '12 in (305 mm)', widthMm: 304.8 },
-  { id: 'roll-24in', kind: 'roll', label: '24 in (610 mm)', widthMm: 609.6 },
-]
+export const stockPresets: readonly NestStockPreset[] = standardStockSizes.map((size) =>
+  size.kind === 'roll'
+    ? { id: size.id, kind: 'roll', label: `${Math.round(size.widthMm / 25.4)} in (${Math.round(size.widthMm)} mm)`, widthMm: size.widthMm }
+    : { id: size.id, kind: 'sheets', label: size.label, widthMm: size.widthMm, heightMm: size.heightMm },
+)
 
 export function presetsFor(kind: StockKind): NestStockPreset[] {
   return stockPresets.filter((preset) => preset.kind === kind)
