@@ -193,8 +193,11 @@ describe('layout editor in the browser', () => {
   }, 120_000)
 
   it('keeps unsaved changes of a closed tab and re-applies them over a newer saved version after a refused save', async () => {
-    // Arrange: an unsaved change (a nudge of the strip) in the editor.
+    // Arrange: an unsaved change (a nudge of the strip) in the editor. The export menu of the last test must be
+    // gone first: a closing menu hands the focus back to its button, which would take it from the canvas.
+    await page.locator('.q-menu').waitFor({ state: 'detached' })
     await page.getByTestId('layout-canvas').focus()
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).toBe('layout-canvas')
     await page.keyboard.press('Tab')
     await page.keyboard.press('Tab')
     await page.keyboard.press('Shift+ArrowDown')
