@@ -1,4 +1,4 @@
-import { doublePrecision, index, integer, numeric, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { boolean, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
 import { users, workspaces } from './accounts.js'
 import { materials } from './materials.js'
 
@@ -31,6 +31,12 @@ export const stockItems = pgTable(
     price: numeric('price', { precision: 14, scale: 4, mode: 'number' }),
     quantityOnHand: integer('quantity_on_hand').notNull().default(0),
     supplierNote: text('supplier_note').notNull().default(''),
+    /** A leftover kept from a job (sheet: the unused area as `outline`; roll: the rest of the roll). */
+    isRemnant: boolean('is_remnant').notNull().default(false),
+    /** The job it was left over from; no foreign key, cut_jobs already refers to stock_items. */
+    remnantOfJobId: uuid('remnant_of_job_id'),
+    /** Sheets only, optional: the usable area as polygon rings in mm (outer ring first, then holes), inside width × height. */
+    outline: jsonb('outline').$type<Array<Array<[number, number]>>>(),
     archivedAt: timestamp('archived_at', { withTimezone: true }),
     createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
