@@ -4,12 +4,13 @@
  * tear or fail to go through), and the UI says so.
  */
 
-export const bladeTypes = ['standard', 'deep cut', 'fabric', 'rotary'] as const
+/** The same names as the blade types of cut recipes (shared/schemas/materials.ts), so a recipe's blade finds its limit. */
+export const bladeTypes = ['standard', 'deep-cut', 'fabric', 'rotary'] as const
 
 /** Metres of cut per blade type before a swap is due: starting points, not a machine maker's figures. */
 export const defaultBladeWearLimitsM: Record<string, number> = {
   standard: 2000,
-  'deep cut': 1200,
+  'deep-cut': 1200,
   fabric: 1500,
   rotary: 3000,
 }

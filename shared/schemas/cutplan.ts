@@ -15,6 +15,8 @@ const queryBoolean = (field: string) =>
 const profileFields = cutterProfileSchema.shape
 
 export const cutPlanQuerySchema = z.object({
+  /** A stored cutter of the workspace whose speeds, acceleration, lift time, origin and axes are the base profile. */
+  cutterId: z.uuid({ error: 'Not a valid cutter id' }).optional(),
   cutSpeedMmS: profileFields.cutSpeedMmS.optional(),
   travelSpeedMmS: profileFields.travelSpeedMmS.optional(),
   accelerationMmS2: profileFields.accelerationMmS2.optional(),

@@ -340,12 +340,18 @@ describe('test cuts and suggestions', () => {
   })
 
   it("adds a pass instead of force at the cutter's maximum force", async () => {
+    // A cutter of the workspace: test cuts only name cutters that exist here (tests/api/cutters.test.ts).
+    const cutter = await api()
+      .post(`/api/workspaces/${owner.workspace.id}/cutters`)
+      .set(bearer(owner.accessToken))
+      .send({ name: 'Test bench', toolKind: 'blade', cuttingWidthMm: 330, maxLengthMm: 3000, cutSpeedMmS: 100, travelSpeedMmS: 300, accelerationMmS2: 1500, liftLowerS: 0.15 })
+      .expect(201)
     const logged = await api()
       .post(testCutsUrl)
       .set(bearer(owner.accessToken))
-      .send({ outcome: 'not_through', force: 250, cutterMaxForce: 250, cutterId: '0b7c6d7e-4a45-4a43-9e3e-0d7a2a0e6a11' })
+      .send({ outcome: 'not_through', force: 250, cutterMaxForce: 250, cutterId: cutter.body.id })
       .expect(201)
-    expect(logged.body).toMatchObject({ cutterMaxForce: 250, cutterId: '0b7c6d7e-4a45-4a43-9e3e-0d7a2a0e6a11', recipe: { force: 250 } })
+    expect(logged.body).toMatchObject({ cutterMaxForce: 250, cutterId: cutter.body.id, bladeId: null, recipe: { force: 250 } })
     expect(logged.body.suggestion).toMatchObject({ action: 'add-pass', changes: [{ field: 'passes', from: 1, to: 2 }] })
   })
 

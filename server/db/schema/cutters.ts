@@ -61,7 +61,7 @@ export const blades = pgTable(
     cutterId: uuid('cutter_id')
       .notNull()
       .references(() => cutters.id, { onDelete: 'cascade' }),
-    /** A blade type of the workspace's wear-limit table, e.g. "standard", "deep cut", "fabric". */
+    /** A blade type of the workspace's wear-limit table, e.g. "standard", "deep-cut", "fabric". */
     bladeType: text('blade_type').notNull(),
     angleDeg: doublePrecision('angle_deg').notNull(),
     label: text('label').notNull().default(''),

@@ -1,6 +1,6 @@
 import type { DesignForCutPlan } from '../../../shared/cutplan/contours.js'
 import { planLayout, type LayoutCutPlan as Plan } from '../../../shared/cutplan/plan.js'
-import { cutPlanOptionsSchema, profileWith } from '../../../shared/cutplan/profile.js'
+import { cutPlanOptionsSchema, profileWith, type CutterProfile } from '../../../shared/cutplan/profile.js'
 import { sheetToHpgl } from '../../../shared/cutplan/hpgl.js'
 import { sheetToSvg } from '../../../shared/cutplan/svg.js'
 import type { CutPlanExportQuery, CutPlanQuery, CutPlanResponse } from '../../../shared/schemas/cutplan.js'
@@ -8,6 +8,8 @@ import type { AppContext } from '../../context.js'
 import { invalidField, notFound } from '../../errors.js'
 import { findLayout } from '../layouts/layouts.repo.js'
 import { findDesignsForCutPlan } from './cutplan.repo.js'
+import { findCutter } from '../cutters/cutters.repo.js'
+import { profileOfCutter } from '../cutters/cutterProfile.js'
 import { jobSheetPdf } from './jobSheet.js'
 
 interface PlannedLayout {
@@ -16,7 +18,7 @@ interface PlannedLayout {
   plan: Plan
 }
 
-/** Reads the saved layout and its designs and plans every sheet with the default profile and the query's overrides. */
+/** Reads the saved layout and its designs and plans every sheet with the default (or chosen cutter's) profile and the query's overrides. */
 async function planSavedLayout(context: AppContext, workspaceId: string, layoutId: string, query: CutPlanQuery): Promise<PlannedLayout> {
   const found = await findLayout(context.db, workspaceId, layoutId)
   if (!found) throw notFound('Layout')
@@ -24,7 +26,14 @@ async function planSavedLayout(context: AppContext, workspaceId: string, layoutI
   const ids = [...new Set(layout.placements.map((placement) => placement.designId))]
   const rows = await findDesignsForCutPlan(context.db, workspaceId, ids)
   const designs = new Map(rows.map((row) => [row.id, { name: row.name, geometry: row.geometry }]))
-  const profile = profileWith({
+  // A chosen cutter gives the base profile; values in the query still override it (e.g. a slower speed for one job).
+  let base: Partial<CutterProfile> = {}
+  if (query.cutterId) {
+    const cutter = await findCutter(context.db, workspaceId, query.cutterId)
+    if (!cutter) throw invalidField('query.cutterId', 'No such cutter in this workspace')
+    base = profileOfCutter(cutter)
+  }
+  const overrides: Partial<CutterProfile> = {
     cutSpeedMmS: query.cutSpeedMmS,
     travelSpeedMmS: query.travelSpeedMmS,
     accelerationMmS2: query.accelerationMmS2,
@@ -32,7 +41,8 @@ async function planSavedLayout(context: AppContext, workspaceId: string, layoutI
     cornerAngleDeg: query.cornerAngleDeg,
     origin: query.origin,
     swapAxes: query.swapAxes,
-  })
+  }
+  const profile = profileWith({ ...base, ...Object.fromEntries(Object.entries(overrides).filter(([, value]) => value !== undefined)) })
   const options = cutPlanOptionsSchema.parse({
     passes: query.passes,
     overcutMm: query.overcutMm,

@@ -18,6 +18,8 @@ import { recipeValuesOf, requireMaterial, settingsOf, toRecipe } from './materia
 import { acceptedPhotoTypes, sniffPhotoType } from './photoType.js'
 import { checkForce, toChange, workspaceRangeName, writeRecipeValues } from './recipes.service.js'
 import * as repo from './testCuts.repo.js'
+import * as cuttersRepo from '../cutters/cutters.repo.js'
+import type { DatabaseOrTransaction } from '../../db/client.js'
 
 export interface UploadedPhoto {
   originalname: string
@@ -115,6 +117,31 @@ function checkPhoto(photo: UploadedPhoto): 'image/png' | 'image/jpeg' | 'image/w
 }
 
 /**
+ * The cutter and blade a test cut was made on, checked to be this workspace's (and the blade that cutter's). A cutter
+ * without a blade named means its current blade, so the cut counts for the blade-swap test-cut prompt; the cutter's
+ * highest force is the force limit unless the maker gives one.
+ */
+async function cutterAndBladeOf(
+  tx: DatabaseOrTransaction,
+  workspaceId: string,
+  body: { cutterId?: string; bladeId?: string; cutterMaxForce?: number },
+): Promise<{ cutterId: string | null; bladeId: string | null; cutterMaxForce: number | undefined }> {
+  let cutterId = body.cutterId ?? null
+  let bladeId = body.bladeId ?? null
+  if (bladeId) {
+    const blade = await cuttersRepo.findBlade(tx, workspaceId, bladeId)
+    if (!blade) throw invalidField('body.bladeId', 'No such blade in this workspace')
+    if (cutterId && blade.blade.cutterId !== cutterId) throw invalidField('body.bladeId', 'This blade was not fitted to the chosen cutter')
+    cutterId = blade.blade.cutterId
+  }
+  if (!cutterId) return { cutterId: null, bladeId: null, cutterMaxForce: body.cutterMaxForce }
+  const cutter = await cuttersRepo.findCutter(tx, workspaceId, cutterId)
+  if (!cutter) throw invalidField('body.cutterId', 'No such cutter in this workspace')
+  if (!bladeId) bladeId = (await cuttersRepo.currentBladesOf(tx, workspaceId, [cutterId]))[0]?.blade.id ?? null
+  return { cutterId, bladeId, cutterMaxForce: body.cutterMaxForce ?? cutter.forceMax ?? undefined }
+}
+
+/**
  * Logs a test cut with the material's current recipe for the tool kind, or the values the maker says were cut.
  * The force is checked against the cutter's range when its maximum is given, else the workspace's.
  */
@@ -139,9 +166,10 @@ export async function createTestCut(
       if (cut[field] === null) throw invalidField(`body.${field}`, `A ${body.toolKind} recipe has no ${field}`)
       ;(cut as Record<string, unknown>)[field] = value
     }
+    const machine = await cutterAndBladeOf(tx, workspaceId, body)
     if (body.toolKind === 'blade') {
-      const range = effectiveForceRange({ min: settings.forceMin, max: settings.forceMax }, body.cutterMaxForce)
-      checkForce(cut.force, range, body.cutterMaxForce === undefined ? workspaceRangeName : "the cutter's range")
+      const range = effectiveForceRange({ min: settings.forceMin, max: settings.forceMax }, machine.cutterMaxForce)
+      checkForce(cut.force, range, machine.cutterMaxForce === undefined ? workspaceRangeName : "the cutter's range")
     }
     const inserted = await repo.insertTestCut(tx, {
       workspaceId,
@@ -149,9 +177,9 @@ export async function createTestCut(
       toolKind: body.toolKind,
       recipe: cut,
       recipeVersion: recipe.version,
-      cutterId: body.cutterId ?? null,
-      bladeId: body.bladeId ?? null,
-      cutterMaxForce: body.cutterMaxForce ?? null,
+      cutterId: machine.cutterId,
+      bladeId: machine.bladeId,
+      cutterMaxForce: machine.cutterMaxForce ?? null,
       outcome: body.outcome,
       note: body.note,
       createdBy: userId,

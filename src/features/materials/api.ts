@@ -102,6 +102,8 @@ export interface NewTestCut {
   /** Only the values that differ from the recipe, as the cut was made. */
   overrides: Partial<Record<'force' | 'passes' | 'speedMmS' | 'powerPercent', number>>
   cutterMaxForce?: number
+  /** The cutter it was cut on; the server records that cutter's current blade with it (blade-swap test-cut prompt). */
+  cutterId?: string | null
   photo?: File | null
 }
 
@@ -113,6 +115,7 @@ export function createTestCut(workspaceId: string, materialId: string, cut: NewT
   if (cut.note) form.append('note', cut.note)
   for (const [field, value] of Object.entries(cut.overrides)) form.append(field, String(value))
   if (cut.cutterMaxForce !== undefined) form.append('cutterMaxForce', String(cut.cutterMaxForce))
+  if (cut.cutterId) form.append('cutterId', cut.cutterId)
   if (cut.photo) form.append('photo', cut.photo, cut.photo.name)
   return upload(`${materialPath(workspaceId, materialId)}/test-cuts`, form, { schema: testCutSchema, onProgress })
 }
