@@ -106,6 +106,10 @@ export const stockItemSchema = z.object({
   quantityOnHand: z.number(),
   supplierNote: z.string(),
   archived: z.boolean(),
+  /** A leftover kept from a job: sheets carry the unused area as `outline` rings (outer first, then holes; mm, from the item's top-left). */
+  isRemnant: z.boolean(),
+  remnantOfJobId: z.string().nullable(),
+  outline: z.array(z.array(z.tuple([z.number(), z.number()]))).nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
 })
@@ -118,6 +122,8 @@ export const stockListQuerySchema = z.object({
   kind: stockKindSchema.optional(),
   materialId: z.uuid({ error: 'Not a valid material id' }).optional(),
   status: z.enum(stockStatuses, { error: 'Status must be active, archived or all' }).default('active'),
+  /** only: remnants only; exclude: no remnants; left out: both. */
+  remnants: z.enum(['only', 'exclude'], { error: 'Remnants must be only or exclude' }).optional(),
   page: z.coerce.number({ error: 'Page must be a number' }).int().min(1, { error: 'Page must be at least 1' }).default(1),
   pageSize: z.coerce.number({ error: 'Page size must be a number' }).int().min(1).max(100, { error: 'Page size must be at most 100' }).default(50),
 })

@@ -17,6 +17,7 @@ export interface StockFilter {
   kind?: 'sheet' | 'roll'
   materialId?: string
   status: 'active' | 'archived' | 'all'
+  remnants?: 'only' | 'exclude'
   page: number
   pageSize: number
 }
@@ -31,6 +32,8 @@ function listFilter(workspaceId: string, filter: StockFilter): SQL | undefined {
   }
   if (filter.kind) conditions.push(eq(stockItems.kind, filter.kind))
   if (filter.materialId) conditions.push(eq(stockItems.materialId, filter.materialId))
+  if (filter.remnants === 'only') conditions.push(eq(stockItems.isRemnant, true))
+  if (filter.remnants === 'exclude') conditions.push(eq(stockItems.isRemnant, false))
   if (filter.status === 'active') conditions.push(isNull(stockItems.archivedAt))
   if (filter.status === 'archived') conditions.push(isNotNull(stockItems.archivedAt))
   return and(...conditions)

@@ -23,6 +23,9 @@ function toStockItem({ item, materialName, materialCategory }: repo.StockRowWith
     quantityOnHand: item.quantityOnHand,
     supplierNote: item.supplierNote,
     archived: item.archivedAt !== null,
+    isRemnant: item.isRemnant,
+    remnantOfJobId: item.remnantOfJobId,
+    outline: item.outline ?? null,
     createdAt: item.createdAt.toISOString(),
     updatedAt: item.updatedAt.toISOString(),
   }
