@@ -2,6 +2,7 @@ import type { AppConfig } from './config.js'
 import type { Database } from './db/client.js'
 import type { Logger } from './logger.js'
 import type { MailService } from './features/mail/mail.service.js'
+import type { PaymentProvider } from './features/payments/payments.client.js'
 
 /** Background work the API can start; absent in a server that runs without the job queue. */
 export interface JobSender {
@@ -15,4 +16,6 @@ export interface AppContext {
   mail: MailService
   logger: Logger
   jobs?: JobSender
+  /** Pay links; absent when payments are off (no keys in production). */
+  payments?: PaymentProvider
 }

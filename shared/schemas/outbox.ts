@@ -9,6 +9,8 @@ export const outboxMessageSchema = z.object({
   text: z.string(),
   /** Every http(s) link in the message body, so a person can follow invite and reset links locally. */
   links: z.array(z.string()),
+  /** Attached files by name, type and size (the catcher keeps no bytes). */
+  attachments: z.array(z.object({ filename: z.string(), contentType: z.string(), sizeBytes: z.number() })).default([]),
   receivedAt: z.string(),
 })
 export type OutboxMessage = z.infer<typeof outboxMessageSchema>

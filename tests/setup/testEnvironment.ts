@@ -11,6 +11,10 @@ export function applyTestEnvironment(environment: NodeJS.ProcessEnv = process.en
   environment.AUTH_RATE_LIMIT ??= '100000'
   // A pathological upload is refused after this long; short here so the test of it stays quick.
   environment.IMPORT_TIMEOUT_MS ??= '4000'
+  // Pay links go to the local fake payment provider on its own test port, never to a real account.
+  environment.PAYMENTS_FAKE_PORT ??= '12112'
+  delete environment.PAYMENTS_SECRET_KEY
+  delete environment.PAYMENTS_API_URL
   environment.SMTP_URL = ''
   delete environment.SMTP_URL
 }

@@ -1,6 +1,6 @@
 import { and, desc, eq, sql } from 'drizzle-orm'
 import type { Database, DatabaseOrTransaction } from '../../db/client.js'
-import { caughtMail, outboundMail } from '../../db/schema/index.js'
+import { caughtMail, outboundMail, outboundMailAttachments } from '../../db/schema/index.js'
 
 export interface MailMessage {
   kind: string
@@ -8,6 +8,19 @@ export interface MailMessage {
   subject: string
   text: string
   html?: string
+  attachments?: MailAttachment[]
+}
+
+export interface MailAttachment {
+  filename: string
+  contentType: string
+  content: Buffer
+}
+
+export interface CaughtAttachment {
+  filename: string
+  contentType: string
+  sizeBytes: number
 }
 
 export async function insertOutboundMail(db: DatabaseOrTransaction, message: MailMessage): Promise<string> {
@@ -15,7 +28,18 @@ export async function insertOutboundMail(db: DatabaseOrTransaction, message: Mai
     .insert(outboundMail)
     .values({ kind: message.kind, toAddress: message.to, subject: message.subject, textBody: message.text, htmlBody: message.html })
     .returning({ id: outboundMail.id })
+  if (message.attachments?.length) {
+    await db.insert(outboundMailAttachments).values(message.attachments.map((attachment) => ({ mailId: row!.id, ...attachment })))
+  }
   return row!.id
+}
+
+export async function findMailAttachments(db: Database, mailId: string): Promise<MailAttachment[]> {
+  return db
+    .select({ filename: outboundMailAttachments.filename, contentType: outboundMailAttachments.contentType, content: outboundMailAttachments.content })
+    .from(outboundMailAttachments)
+    .where(eq(outboundMailAttachments.mailId, mailId))
+    .orderBy(outboundMailAttachments.filename)
 }
 
 export async function findOutboundMail(db: Database, mailId: string) {
@@ -47,9 +71,11 @@ export async function findStaleQueuedMail(db: Database, olderThanSeconds: number
 
 export async function insertCaughtMail(
   db: Database,
-  message: { to: string; from: string; subject: string; text: string },
+  message: { to: string; from: string; subject: string; text: string; attachments?: CaughtAttachment[] },
 ) {
-  await db.insert(caughtMail).values({ toAddress: message.to, fromAddress: message.from, subject: message.subject, textBody: message.text })
+  await db
+    .insert(caughtMail)
+    .values({ toAddress: message.to, fromAddress: message.from, subject: message.subject, textBody: message.text, attachments: message.attachments ?? [] })
 }
 
 export async function listCaughtMail(db: Database, limit = 200) {

@@ -1,7 +1,7 @@
 import type { Transporter } from 'nodemailer'
 import type { Database, DatabaseOrTransaction } from '../../db/client.js'
 import type { Logger } from '../../logger.js'
-import { findOutboundMail, insertOutboundMail, markMailAttemptFailed, markMailSent, type MailMessage } from './mail.repo.js'
+import { findMailAttachments, findOutboundMail, insertOutboundMail, markMailAttemptFailed, markMailSent, type MailMessage } from './mail.repo.js'
 
 /** How a written message reaches the transport: a pg-boss job, or at once when no queue runs (unit-sized apps). */
 export interface MailDispatcher {
@@ -32,7 +32,8 @@ export async function deliverMail(
   const mail = await findOutboundMail(db, mailId)
   if (!mail || mail.status === 'sent') return
   try {
-    await transport.sendMail({ from: mailFrom, to: mail.toAddress, subject: mail.subject, text: mail.textBody, html: mail.htmlBody ?? undefined })
+    const attachments = await findMailAttachments(db, mailId)
+    await transport.sendMail({ from: mailFrom, to: mail.toAddress, subject: mail.subject, text: mail.textBody, html: mail.htmlBody ?? undefined, attachments })
     await markMailSent(db, mailId)
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error)

@@ -4,7 +4,8 @@ import type { Database } from '../../db/client.js'
 import type { Logger } from '../../logger.js'
 import { insertCaughtMail } from './mail.repo.js'
 
-const maxMessageBytes = 5 * 1024 * 1024
+// Room for a printed quote or job sheet attached as PDF.
+const maxMessageBytes = 10 * 1024 * 1024
 
 function addressText(address: AddressObject | AddressObject[] | undefined): string {
   if (!address) return ''
@@ -33,6 +34,11 @@ export async function startMailCatcher(db: Database, port: number, logger: Logge
             from: addressText(parsed.from),
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
+            attachments: parsed.attachments.map((attachment) => ({
+              filename: attachment.filename ?? 'attachment',
+              contentType: attachment.contentType,
+              sizeBytes: attachment.size,
+            })),
           })
           callback()
         })

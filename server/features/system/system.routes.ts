@@ -45,6 +45,7 @@ export function devOutboxRoutes(context: AppContext): Router {
       subject: row.subject,
       text: row.textBody,
       links: [...new Set(row.textBody.match(linkPattern) ?? [])],
+      attachments: row.attachments,
       receivedAt: row.receivedAt.toISOString(),
     }))
     response.json(messages)
