@@ -14,6 +14,9 @@ import { startRuntime } from '../server/runtime.js'
 import { demoDesigns, demoDesignsDirectory } from '../fixtures/demo-designs.js'
 import { demoPassword, demoStudio } from '../fixtures/demo-studio.js'
 import { seedStockAndMaterials } from './seedStock.js'
+import { seedQuotes } from './seedQuotes.js'
+import { seedCutters } from './seedCutters.js'
+import { seedJobs } from './seedJobs.js'
 import { demoLayoutRequest, demoLayouts, type DemoDesignForLayout } from '../fixtures/demo-layouts.js'
 
 const config = loadConfig()
@@ -107,12 +110,20 @@ try {
   const { workspaceId, ownerId } = await seedStudio()
   const { added, kept } = await seedDesigns(workspaceId, ownerId)
   const stock = await seedStockAndMaterials(context, workspaceId)
+  const cutterCounts = await seedCutters(context, workspaceId)
   const layoutCounts = await seedLayouts(workspaceId, ownerId)
+  // Jobs last: they need the layouts, the stock and the cutters (done jobs add wear to a fitted blade).
+  const jobCounts = await seedJobs(context, workspaceId)
+  // Quotes after jobs: one demo quote prices a demo job.
+  const quoteCounts = await seedQuotes(context, workspaceId, ownerId)
   console.log(`==> demo studio "${demoStudio.name}" is ready. Demo sign-ins (password for all: ${demoPassword}):`)
   for (const member of demoStudio.members) console.log(`    ${member.role.padEnd(6)}  ${member.email}`)
   console.log(`==> demo designs: ${added.length} added, ${kept.length} already present`)
   console.log(`==> demo stock: ${stock.stockAdded} items added; test cuts: ${stock.testCutsAdded} added`)
+  console.log(`==> demo cutters: ${cutterCounts.cuttersAdded} added, ${cutterCounts.kept} already present`)
   console.log(`==> demo layouts and templates: ${layoutCounts.added} added, ${layoutCounts.kept} already present`)
+  console.log(`==> demo jobs: ${jobCounts.jobsAdded} added`)
+  console.log(`==> demo pricing and quotes: ${quoteCounts.added} quotes added, ${quoteCounts.kept} already present`)
 } finally {
   await runtime.close()
 }

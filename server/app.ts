@@ -17,8 +17,14 @@ import { favouritesRoutes, materialsRoutes } from './features/materials/material
 import { layoutsRoutes, maxLayoutBodyBytes } from './features/layouts/layouts.routes.js'
 import { cutPlanRoutes } from './features/cutplan/cutplan.routes.js'
 import { comparisonsRoutes } from './features/comparisons/comparisons.routes.js'
+import { cuttersRoutes, studioSettingsRoutes } from './features/cutters/cutters.routes.js'
+import { jobsRoutes, remnantsRoutes } from './features/jobs/jobs.routes.js'
+import { dashboardRoutes } from './features/dashboard/dashboard.routes.js'
 import { invitesRoutes } from './features/invites/invites.routes.js'
 import { devOutboxRoutes, systemRoutes } from './features/system/system.routes.js'
+import { pricingRoutes } from './features/pricing/pricing.routes.js'
+import { publicQuotesRoutes, quotesRoutes } from './features/quotes/quotes.routes.js'
+import { paymentWebhookRoutes } from './features/payments/payments.routes.js'
 
 /** Builds the HTTP app (API + built client) without listening, so tests can run it in-process. */
 export function createApp(context: AppContext): Express {
@@ -58,6 +64,8 @@ export function createApp(context: AppContext): Express {
       strictTransportSecurity: context.config.appUrl.startsWith('https://'),
     }),
   )
+  // The provider's signature covers the raw bytes: this route reads its body itself, before any parser.
+  app.use('/api/payments', paymentWebhookRoutes(context))
   // Read first with its own limit (the general parser then finds the body read and passes).
   app.use('/api/workspaces/:workspaceId/layouts', express.json({ limit: maxLayoutBodyBytes }))
   app.use(express.json({ limit: '1mb' }))
@@ -78,6 +86,14 @@ export function createApp(context: AppContext): Express {
   api.use('/workspaces/:workspaceId/layouts', cutPlanRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/layouts', layoutsRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/comparisons', comparisonsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/cutters', cuttersRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/studio-settings', studioSettingsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/jobs', jobsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/remnants', remnantsRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/dashboard', dashboardRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/pricing', pricingRoutes(context, signedIn))
+  api.use('/workspaces/:workspaceId/quotes', quotesRoutes(context, signedIn))
+  api.use('/public/quotes', publicQuotesRoutes(context))
   api.use('/workspaces', workspacesRoutes(context, signedIn))
   api.use('/invites', invitesRoutes(context, optionalAuth(passport)))
   api.use('/dev', devOutboxRoutes(context))

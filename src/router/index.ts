@@ -121,6 +121,70 @@ const routes: RouteRecordRaw[] = [
         ],
       },
       {
+        path: 'w/:workspaceId/jobs',
+        children: [
+          {
+            path: '',
+            name: 'jobs',
+            component: () => import('../features/jobs/JobsPage.vue'),
+            meta: { title: 'Jobs' },
+          },
+          {
+            path: ':jobId',
+            name: 'job-detail',
+            component: () => import('../features/jobs/JobDetailPage.vue'),
+            meta: { title: 'Job' },
+          },
+        ],
+      },
+      {
+        path: 'w/:workspaceId/cutters',
+        children: [
+          {
+            path: '',
+            name: 'cutters',
+            component: () => import('../features/cutters/CuttersPage.vue'),
+            meta: { title: 'Cutters' },
+          },
+          {
+            path: ':cutterId',
+            name: 'cutter-detail',
+            component: () => import('../features/cutters/CutterDetailPage.vue'),
+            meta: { title: 'Cutter' },
+          },
+        ],
+      },
+      {
+        path: 'w/:workspaceId/cuts-not-through',
+        name: 'cuts-not-through',
+        component: () => import('../features/cutters/CutsNotThroughPage.vue'),
+        meta: { title: 'Cuts not going through?' },
+      },
+      {
+        path: 'w/:workspaceId/quotes',
+        children: [
+          {
+            // `?job=<id>` opens the New quote dialog with that job picked (the job page's "Price this job").
+            path: '',
+            name: 'quotes',
+            component: () => import('../features/quotes/QuotesPage.vue'),
+            meta: { title: 'Quotes' },
+          },
+          {
+            path: ':quoteId',
+            name: 'quote-detail',
+            component: () => import('../features/quotes/QuoteDetailPage.vue'),
+            meta: { title: 'Quote' },
+          },
+        ],
+      },
+      {
+        path: 'w/:workspaceId/pricing',
+        name: 'pricing',
+        component: () => import('../features/pricing/PricingPage.vue'),
+        meta: { title: 'Pricing' },
+      },
+      {
         path: 'w/:workspaceId/members',
         name: 'members',
         component: () => import('../features/members/MembersPage.vue'),
@@ -174,6 +238,19 @@ const routes: RouteRecordRaw[] = [
         name: 'invite',
         component: () => import('../features/invites/InviteAcceptPage.vue'),
         meta: { title: 'Invitation' },
+      },
+    ],
+  },
+  {
+    // The customer's quote by its unguessable link: outside the signed-in shell, no session needed or used.
+    path: '/q/:token',
+    component: () => import('../layouts/PublicPageLayout.vue'),
+    children: [
+      {
+        path: '',
+        name: 'quote-public',
+        component: () => import('../features/quotes/QuotePublicPage.vue'),
+        meta: { title: 'Quote' },
       },
     ],
   },
