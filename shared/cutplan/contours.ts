@@ -138,9 +138,9 @@ export function insideFirstConstraints(contours: readonly CutContour[]): number[
   return before
 }
 
-/** Sheet size in millimetres: a sheet of the stock, or the roll from 0 to its used length (furthest contour + margin). */
+/** Sheet size in millimetres: a sheet of the stock (a polygon stock's box), or the roll from 0 to its used length (furthest contour + margin). */
 export function sheetSize(layout: LayoutForCutPlan, contours: readonly CutContour[]): { widthMm: number; heightMm: number } {
-  if (layout.stock.kind === 'sheets') return { widthMm: layout.stock.widthMm, heightMm: layout.stock.heightMm }
+  if (layout.stock.kind !== 'roll') return { widthMm: layout.stock.widthMm, heightMm: layout.stock.heightMm }
   const furthest = contours.reduce((max, contour) => Math.max(max, contour.box.maxX), 0)
   return { widthMm: contours.length > 0 ? furthest + layout.options.marginMm : layout.stock.lengthMm, heightMm: layout.stock.widthMm }
 }

@@ -4,6 +4,7 @@ import type { LayoutItem, LayoutOptions, LayoutPlacement, LayoutStock } from '..
 import { copyPieceIndices, laneCount, laneSize, normaliseAngle, usableArea, type LayoutDocument } from './document.js'
 import type { DesignForLayout } from './figures.js'
 import { boxCentre, translateBox, type ShapeCache } from './placedGeometry.js'
+import { boxInsideRegion, usableRegionOf } from './polygonStock.js'
 import { createPieceIndex, type PieceIndex } from './spatialIndex.js'
 
 /**
@@ -195,7 +196,9 @@ function indexOfDocument(document: LayoutDocument, shapes: ShapeCache): PieceInd
 function findFreeSpot(document: LayoutDocument, index: PieceIndex, size: { width: number; height: number }, stepMm = 1): { sheet: number; minX: number; minY: number } | null {
   const usable = usableArea(document.stock, document.options)
   const spacing = document.options.spacingMm
-  const alongX = document.stock.kind === 'sheets'
+  const alongX = document.stock.kind !== 'roll'
+  // A polygon stock's box holds notches and holes: a spot free of pieces must also lie inside its outline.
+  const region = usableRegionOf(document.stock, document.options.marginMm)
   const zoneBoxes = document.options.excludedZones.map((zone) => {
     let minX = Infinity
     let minY = Infinity
@@ -225,7 +228,11 @@ function findFreeSpot(document: LayoutDocument, index: PieceIndex, size: { width
         for (const zone of zoneBoxes) {
           if (zone.sheet === sheet && zone.box.minX < box.maxX && box.minX < zone.box.maxX && zone.box.minY < box.maxY && box.minY < zone.box.maxY) blockers.push(zone.box)
         }
-        if (blockers.length === 0) return { sheet, minX: box.minX, minY: box.minY }
+        if (blockers.length === 0 && (!region || boxInsideRegion(box, region))) return { sheet, minX: box.minX, minY: box.minY }
+        if (blockers.length === 0) {
+          inner += stepMm
+          continue
+        }
         const past = Math.max(...blockers.map((blocker) => (alongX ? blocker.maxX : blocker.maxY))) + spacing
         inner = Math.max(past, inner + stepMm)
       }
@@ -266,7 +273,7 @@ function placeCopies(document: LayoutDocument, designId: string, copies: number,
           next = { ...next, stock: { ...stock, lengthMm: Math.max(stock.lengthMm, Math.ceil(minX + size.width + next.options.marginMm)) } }
           spot = { sheet: 0, minX, minY: usable.minY }
         } else {
-          spot = { sheet: stock.sheetCount - 1, minX: usable.minX, minY: usable.minY }
+          spot = { sheet: laneCount(stock) - 1, minX: usable.minX, minY: usable.minY }
         }
       }
       const placement: LayoutPlacement = { id: environment.newId(), ...pose, sheet: spot.sheet, xMm: spot.minX - oriented.box.minX, yMm: spot.minY - oriented.box.minY, locked: false }
@@ -322,8 +329,9 @@ export function setItemQuantity(document: LayoutDocument, designId: string, quan
 
 /**
  * A new stock. Between kinds, pieces keep their order: sheets laid end to end become one roll (a piece on sheet k
- * moves k sheet widths along it), and a roll's pieces all land on the first sheet. Sheet count is kept from the
- * old sheets, and grows to hold every piece's sheet.
+ * moves k sheet widths along it), and a roll's or a polygon stock's pieces all land on the first sheet; onto a polygon
+ * stock (one lane) every piece lands on it, where the editor flags those outside its outline. Sheet count is kept from
+ * the old sheets, and grows to hold every piece's sheet.
  */
 export function setStock(document: LayoutDocument, stock: LayoutStock): LayoutDocument {
   const old = document.stock
@@ -332,14 +340,15 @@ export function setStock(document: LayoutDocument, stock: LayoutStock): LayoutDo
   if (old.kind === 'sheets' && next.kind === 'roll') {
     placements = placements.map((placement) => (placement.sheet === 0 ? placement : { ...placement, sheet: 0, xMm: placement.xMm + placement.sheet * old.widthMm }))
     next = { ...next, lengthMm: Math.max(next.lengthMm, old.widthMm * old.sheetCount) }
-  } else if (old.kind === 'roll' && next.kind === 'sheets') {
+  } else if (old.kind !== next.kind && next.kind !== 'roll') {
+    // Onto sheets from a roll or a polygon, or onto a polygon (one lane): everything lands on the first.
     placements = placements.map((placement) => (placement.sheet === 0 ? placement : { ...placement, sheet: 0 }))
   }
   if (next.kind === 'sheets') {
     const needed = placements.reduce((most, placement) => Math.max(most, placement.sheet + 1), 1)
     if (next.sheetCount < needed) next = { ...next, sheetCount: Math.min(MAX_SHEETS, needed) }
   }
-  const zones = next.kind === 'roll' ? document.options.excludedZones.filter((zone) => zone.sheet === 0) : document.options.excludedZones
+  const zones = next.kind !== 'sheets' ? document.options.excludedZones.filter((zone) => zone.sheet === 0) : document.options.excludedZones
   return { ...document, stock: next, placements, options: zones === document.options.excludedZones ? document.options : { ...document.options, excludedZones: zones } }
 }
 

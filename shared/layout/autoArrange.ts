@@ -85,6 +85,13 @@ export function capZones(zones: Ring[], limit: number): Ring[] {
 
 export type ArrangeRequestResult = { request: CreateNestRunRequest; lockedCount: number } | { request: null; reason: string }
 
+/** The stock a nest run arranges on: sheets without a count, a roll without an end, a polygon stock as it is. */
+export function nestStockOfLayoutStock(stock: LayoutStock): CreateNestRunRequest['stock'] {
+  if (stock.kind === 'sheets') return { kind: 'sheets', widthMm: stock.widthMm, heightMm: stock.heightMm, maxSheets: MAX_SHEETS }
+  if (stock.kind === 'polygon') return { kind: 'polygon', outline: stock.outline, ...(stock.holes && stock.holes.length > 0 ? { holes: stock.holes } : {}) }
+  return { kind: 'roll', widthMm: stock.widthMm }
+}
+
 /**
  * The nest-run request that arranges a layout's unlocked pieces: its items less the copies locked pieces already
  * hold, its stock (a roll without an end, sheets without a count), spacing and margin. Locked pieces and the
@@ -121,7 +128,7 @@ export function nestRequestFromLayout(document: LayoutDocument, environment: { d
   return {
     request: {
       items,
-      stock: stock.kind === 'sheets' ? { kind: 'sheets', widthMm: stock.widthMm, heightMm: stock.heightMm, maxSheets: MAX_SHEETS } : { kind: 'roll', widthMm: stock.widthMm },
+      stock: nestStockOfLayoutStock(stock),
       spacingMm: document.options.spacingMm,
       marginMm: document.options.marginMm,
       excludedZones: zones,
@@ -165,6 +172,8 @@ export function arrangementFromNestResult(document: LayoutDocument, result: Nest
   }
   const kept = document.placements.filter((placement) => placement.locked)
   const { stock } = document
+  // A polygon stock keeps its outline: the run placed what fits on it and reports the rest as not placed.
+  if (stock.kind === 'polygon') return { placements, stock }
   if (stock.kind === 'sheets') {
     const needed = [...kept, ...placements].reduce((most, placement) => Math.max(most, placement.sheet + 1), 1)
     return { placements, stock: { ...stock, sheetCount: Math.min(MAX_SHEETS, needed) } }

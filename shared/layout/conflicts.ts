@@ -1,5 +1,6 @@
 import type { Box } from '../geometry/polygon.js'
 import type { PlacedPolygon, PlacedShape } from './placedGeometry.js'
+import { polygonsOutsideRegion, type RegionPolygon } from './polygonStock.js'
 import { boundaryPlace, boxesTouch, boxGap, ringsCloserThan, ringsCross, TOUCH_MM, type FlatRing } from './rings.js'
 import type { PieceIndex } from './spatialIndex.js'
 
@@ -111,6 +112,8 @@ export interface ConflictEnvironment {
   spacingMm: number
   /** The same on every lane: the stock less its margin. */
   usable: Box
+  /** Polygon stock only: the exact region pieces may use (its outline less the margin, holes left out). */
+  usableRegion?: readonly RegionPolygon[] | null
   laneCount: number
   zonesOf: (sheet: number) => readonly PlacedPolygon[]
   /** Optional rule check per piece (angle and side against its item). */
@@ -118,16 +121,22 @@ export interface ConflictEnvironment {
 }
 
 /** The checks of a shape against the stock alone (margin, excluded zones), independent of other pieces. */
-export function stockConflicts(shape: PlacedShape, sheet: number, environment: Pick<ConflictEnvironment, 'usable' | 'laneCount' | 'zonesOf'>): { outside: boolean; inExcludedZone: boolean } {
+export function stockConflicts(
+  shape: PlacedShape,
+  sheet: number,
+  environment: Pick<ConflictEnvironment, 'usable' | 'laneCount' | 'zonesOf' | 'usableRegion'>,
+): { outside: boolean; inExcludedZone: boolean } {
   const { usable } = environment
   const box = shape.box
-  const outside =
+  let outside =
     sheet < 0 ||
     sheet >= environment.laneCount ||
     box.minX < usable.minX - TOUCH_MM ||
     box.minY < usable.minY - TOUCH_MM ||
     box.maxX > usable.maxX + TOUCH_MM ||
     box.maxY > usable.maxY + TOUCH_MM
+  // Inside the box of a polygon stock is not yet on it: a notch or a hole may still be under the piece.
+  if (!outside && environment.usableRegion) outside = polygonsOutsideRegion(shape.polygons, environment.usableRegion)
   let inExcludedZone = false
   for (const zone of environment.zonesOf(sheet)) {
     if (!boxesTouch(zone.box, box)) continue

@@ -1,4 +1,4 @@
-import type { Box } from '../geometry/polygon.js'
+import { boundingBox, type Box } from '../geometry/polygon.js'
 import type { LayoutItem, LayoutOptions, LayoutPlacement, LayoutStock } from '../schemas/layouts.js'
 
 /** What the editor edits and saves: the body of a layout without its server-kept fields (id, version, figures). */
@@ -10,23 +10,31 @@ export interface LayoutDocument {
   options: LayoutOptions
 }
 
-/** Sheets side by side, or the one roll (lane 0). */
+/** Sheets side by side, or the one roll or polygon stock (lane 0). */
 export function laneCount(stock: LayoutStock): number {
   return stock.kind === 'sheets' ? stock.sheetCount : 1
 }
 
 /**
- * The drawn size of one lane in sheet coordinates: a sheet as it is; a roll with its length along x and its width
- * along y, as the nesting engine lays a roll out.
+ * The drawn size of one lane in sheet coordinates: a sheet (or the box around a polygon stock) as it is; a roll with
+ * its length along x and its width along y, as the nesting engine lays a roll out.
  */
 export function laneSize(stock: LayoutStock): { widthMm: number; heightMm: number } {
-  return stock.kind === 'sheets' ? { widthMm: stock.widthMm, heightMm: stock.heightMm } : { widthMm: stock.lengthMm, heightMm: stock.widthMm }
+  return stock.kind === 'roll' ? { widthMm: stock.lengthMm, heightMm: stock.widthMm } : { widthMm: stock.widthMm, heightMm: stock.heightMm }
 }
 
-/** Where pieces may lie on one lane: the stock less the margin on every side (the roll's drawn end counts as an edge). */
+/**
+ * Where pieces may lie on one lane, as a box: the stock less the margin on every side (the roll's drawn end counts as
+ * an edge). For a polygon stock this is the box around its outline less the margin; the exact region is
+ * `usableRegion` (shared/layout/polygonStock.ts).
+ */
 export function usableArea(stock: LayoutStock, options: Pick<LayoutOptions, 'marginMm'>): Box {
-  const { widthMm, heightMm } = laneSize(stock)
   const margin = options.marginMm
+  if (stock.kind === 'polygon') {
+    const box = boundingBox(stock.outline)
+    return { minX: box.minX + margin, minY: box.minY + margin, maxX: box.maxX - margin, maxY: box.maxY - margin }
+  }
+  const { widthMm, heightMm } = laneSize(stock)
   return { minX: margin, minY: margin, maxX: widthMm - margin, maxY: heightMm - margin }
 }
 

@@ -2,6 +2,7 @@ import type { DesignGeometry } from '../schemas/designs.js'
 import type { LayoutFigures, LayoutItem, LayoutOptions, LayoutPlacement, LayoutStock } from '../schemas/layouts.js'
 import { boundingBox } from '../geometry/polygon.js'
 import { transformRing } from '../nesting/variants.js'
+import { polygonStockAreaMm2 } from './polygonStock.js'
 
 /** What the figures need of a design: its stored geometry and whether its pieces move as one group. */
 export interface DesignForLayout {
@@ -76,7 +77,8 @@ interface PreparedDesign {
  * - Piece area is each piece's stored true area (outline minus holes, from the curves as imported), so a layout taken
  *   from a nest run shows the nest run's utilisation; it does not change with rotation or mirroring.
  * - Sheets: utilisation = piece area / (sheets holding at least one piece × sheet area); per sheet = its piece area /
- *   sheet area, for every sheet 0..sheetCount−1. Roll: utilisation = piece area / (width × used length), where the
+ *   sheet area, for every sheet 0..sheetCount−1. Polygon stock (a remnant): piece area / its area (outline less holes),
+ *   once a piece is on it; it counts as one sheet used. Roll: utilisation = piece area / (width × used length), where the
  *   used length is the furthest x of any placed piece (or cut line) plus the margin; perSheetUtilisation has the one
  *   entry of the roll and sheetsUsed is 0.
  * - Cut length: each placed piece's stored cut length (outline and holes, true curves), plus cut lines: a placement of
@@ -159,6 +161,12 @@ export function computeLayoutFigures(layout: LayoutForFigures, designs: Map<stri
     sheetsUsed = occupied.filter(Boolean).length
     usedStockAreaMm2 = sheetsUsed * sheetAreaMm2
     perSheetUtilisation = areaPerLane.map((area) => area / sheetAreaMm2)
+  } else if (stock.kind === 'polygon') {
+    // A remnant is one piece of stock: once anything is cut from it, all of it (outline less holes) is used, as a sheet is.
+    const stockAreaMm2 = polygonStockAreaMm2(stock)
+    sheetsUsed = occupied[0] ? 1 : 0
+    usedStockAreaMm2 = sheetsUsed * stockAreaMm2
+    perSheetUtilisation = [stockAreaMm2 > 0 ? areaPerLane[0]! / stockAreaMm2 : 0]
   } else {
     usedLengthMm = placedCount > 0 ? Math.max(0, furthestXMm) + layout.options.marginMm : 0
     usedStockAreaMm2 = stock.widthMm * usedLengthMm

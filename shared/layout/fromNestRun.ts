@@ -1,20 +1,28 @@
 import type { NestRunDto } from '../schemas/nesting.js'
 import type { CreateLayoutRequest, LayoutStock } from '../schemas/layouts.js'
+import { boundingBox } from '../geometry/polygon.js'
 import { MAX_SHEETS } from './actions.js'
 
 /**
  * A new layout from a finished nest run (the "Open as layout" of a result): the run's items, stock, spacing, margin
- * and placements. A nest run's excluded zones apply to every sheet, so each sheet gets its own copy. Null for a stock
- * of its own outline, which a layout cannot hold.
+ * and placements. A nest run's excluded zones apply to every sheet, so each sheet gets its own copy. A stock of its own
+ * outline (a remnant) becomes a polygon stock drawn in the box from (0, 0) to its furthest point; null when its
+ * outline reaches below 0, which a layout cannot draw.
  */
 export function layoutFromNestRun(run: Pick<NestRunDto, 'request' | 'result'>, name: string, newId: () => string): CreateLayoutRequest | null {
   const { request, result } = run
-  if (!result || request.stock.kind === 'polygon') return null
+  if (!result) return null
   const sheetCount = Math.min(MAX_SHEETS, Math.max(1, result.sheetCount, ...result.placements.map((placement) => placement.sheet + 1)))
-  const stock: LayoutStock =
-    request.stock.kind === 'sheets'
-      ? { kind: 'sheets', widthMm: request.stock.widthMm, heightMm: request.stock.heightMm, sheetCount }
-      : { kind: 'roll', widthMm: request.stock.widthMm, lengthMm: Math.max(Math.ceil(result.lengthMm), request.stock.widthMm) }
+  let stock: LayoutStock
+  if (request.stock.kind === 'polygon') {
+    const box = boundingBox(request.stock.outline)
+    if (box.minX < 0 || box.minY < 0) return null
+    stock = { kind: 'polygon', widthMm: box.maxX, heightMm: box.maxY, outline: request.stock.outline, holes: request.stock.holes ?? [], stockItemId: null }
+  } else if (request.stock.kind === 'sheets') {
+    stock = { kind: 'sheets', widthMm: request.stock.widthMm, heightMm: request.stock.heightMm, sheetCount }
+  } else {
+    stock = { kind: 'roll', widthMm: request.stock.widthMm, lengthMm: Math.max(Math.ceil(result.lengthMm), request.stock.widthMm) }
+  }
   const lanes = stock.kind === 'sheets' ? sheetCount : 1
   const excludedZones = (request.excludedZones ?? []).flatMap((outline) => Array.from({ length: lanes }, (_, sheet) => ({ sheet, outline }))).slice(0, 100)
   return {

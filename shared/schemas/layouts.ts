@@ -21,8 +21,39 @@ export const layoutStockSchema = z.discriminatedUnion('kind', [
   }),
   /** A roll of fixed width; `lengthMm` is the length drawn (the used length is measured from the pieces). */
   z.object({ kind: z.literal('roll'), widthMm: sizeMm('Roll width'), lengthMm: sizeMm('Roll length') }),
+  /**
+   * One piece of stock with its own outline (a remnant kept from a job): outline and holes in millimetres from the
+   * top-left of the widthMm × heightMm box it is drawn in. It is one lane (sheet 0); the layout's margin is kept inside
+   * the outline (a remnant's outline already lies inside its old sheet's margin, so it is usually laid out with 0).
+   */
+  z
+    .object({
+      kind: z.literal('polygon'),
+      widthMm: sizeMm('Stock width'),
+      heightMm: sizeMm('Stock height'),
+      outline: z.array(point).min(3, { error: 'The stock outline needs at least 3 points' }).max(5000, { error: 'Use at most 5000 outline points' }),
+      holes: z.array(z.array(point).min(3, { error: 'A hole needs at least 3 points' })).max(200, { error: 'Use at most 200 holes' }).optional(),
+      /** The stock item it was taken from, for the record (left out when typed in). */
+      stockItemId: z.uuid({ error: 'Not a valid stock id' }).nullable().optional(),
+    })
+    .superRefine((stock, context) => {
+      // A small tolerance: outlines come from floating-point clipping and may stick out by a rounding error.
+      const slackMm = 1e-6
+      const outside = (ring: [number, number][]) => ring.some(([x, y]) => x < -slackMm || y < -slackMm || x > stock.widthMm + slackMm || y > stock.heightMm + slackMm)
+      if (outside(stock.outline)) context.addIssue({ code: 'custom', path: ['outline'], message: 'The stock outline must lie inside its width × height, from (0, 0)' })
+      for (const [index, hole] of (stock.holes ?? []).entries()) {
+        if (outside(hole)) context.addIssue({ code: 'custom', path: ['holes', index], message: 'Each hole must lie inside the stock width × height' })
+      }
+      let twiceArea = 0
+      stock.outline.forEach(([x, y], index) => {
+        const [nextX, nextY] = stock.outline[(index + 1) % stock.outline.length]!
+        twiceArea += x * nextY - nextX * y
+      })
+      if (Math.abs(twiceArea) / 2 <= 0) context.addIssue({ code: 'custom', path: ['outline'], message: 'The stock outline has no area' })
+    }),
 ])
 export type LayoutStock = z.infer<typeof layoutStockSchema>
+export type PolygonLayoutStock = Extract<LayoutStock, { kind: 'polygon' }>
 
 export const layoutItemSchema = z.object({
   designId: z.uuid({ error: 'Not a valid design id' }),

@@ -75,7 +75,12 @@ export function jobSheetPdf(input: JobSheetInput): Promise<Buffer> {
   }
 
   doc.font('Helvetica-Bold').fontSize(18).text(`Job sheet: ${input.layoutName}`)
-  const stockText = input.stock.kind === 'sheets' ? `Sheets of ${size(input.stock.widthMm, input.stock.heightMm)}` : `Roll ${Math.round(input.stock.widthMm)} mm wide`
+  const stockText =
+    input.stock.kind === 'sheets'
+      ? `Sheets of ${size(input.stock.widthMm, input.stock.heightMm)}`
+      : input.stock.kind === 'polygon'
+        ? `Remnant within ${size(input.stock.widthMm, input.stock.heightMm)}`
+        : `Roll ${Math.round(input.stock.widthMm)} mm wide`
   doc.font('Helvetica').fontSize(10).text(`${stockText}. Cutter profile: ${input.plan.profile.name} (cut ${input.plan.profile.cutSpeedMmS} mm/s, travel ${input.plan.profile.travelSpeedMmS} mm/s). Passes: ${input.plan.options.passes}.`)
   doc.moveDown(0.5)
   doc.font('Helvetica-Bold').fontSize(10).text('Material: ______________________   Blade / force / speed: ______________________')

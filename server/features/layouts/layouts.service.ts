@@ -75,7 +75,9 @@ function checkAgainstDesigns(body: LayoutBody, designs: Map<string, DesignForLay
   const sheetMessage =
     body.stock.kind === 'sheets'
       ? `This layout has ${laneCount} sheet${laneCount === 1 ? '' : 's'}: use a sheet index from 0 to ${laneCount - 1}`
-      : 'A roll is one piece of stock: use sheet 0'
+      : body.stock.kind === 'roll'
+        ? 'A roll is one piece of stock: use sheet 0'
+        : 'A stock of its own outline is one piece of stock: use sheet 0'
 
   body.items.forEach((item, index) => {
     if (!designs.has(item.designId)) add(`body.items.${index}.designId`, 'No such design in this workspace')

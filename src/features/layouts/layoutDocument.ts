@@ -33,8 +33,9 @@ export function newLayoutBody(name: string, unit: UnitSystem): CreateLayoutReque
   }
 }
 
-/** "A4 sheets × 2", "Sheets 300.0 × 450.0 mm × 1", "24 in (610 mm) roll". */
+/** "A4 sheets × 2", "Sheets 300.0 × 450.0 mm × 1", "24 in (610 mm) roll", "Remnant within 280.0 × 180.0 mm". */
 export function stockSummary(stock: LayoutStock, unit: UnitSystem): string {
+  if (stock.kind === 'polygon') return `Remnant within ${formatSize(stock.widthMm, stock.heightMm, unit)}`
   if (stock.kind === 'sheets') {
     const preset = presetMatching('sheets', stock.widthMm, stock.heightMm)
     return `${preset ? `${preset.label} sheets` : `Sheets ${formatSize(stock.widthMm, stock.heightMm, unit)}`} × ${stock.sheetCount}`

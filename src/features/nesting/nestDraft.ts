@@ -61,6 +61,15 @@ export function findPreset(id: string | null): NestStockPreset | null {
   return stockPresets.find((preset) => preset.id === id) ?? null
 }
 
+/** A stock of its own outline picked from the shelf (a sheet remnant), sent as polygon stock. */
+export interface NestRemnantDraft {
+  /** Null for the outline of an earlier run loaded again. */
+  stockItemId: string | null
+  name: string
+  outline: [number, number][]
+  holes: [number, number][][]
+}
+
 /** Stock as typed, in the person's unit; which preset it is follows from the size (presetOfDraft). */
 export interface NestStockDraft {
   kind: StockKind
@@ -68,6 +77,8 @@ export interface NestStockDraft {
   height: string
   /** Roll only, optional: how much of the roll is on hand. */
   length: string
+  /** Set when a sheet remnant is picked: it takes the place of the size typed above. */
+  remnant?: NestRemnantDraft | null
 }
 
 export interface NestSettingsDraft {
@@ -153,11 +164,12 @@ export function buildNestRequest(items: readonly NestItemDraft[], stock: NestSto
 
   // Either side of a preset, so a sheet turned a quarter keeps its exact size too.
   const presetSidesMm = presetsFor(stock.kind).flatMap((preset) => (preset.heightMm === undefined ? [preset.widthMm] : [preset.widthMm, preset.heightMm]))
-  const widthMm = lengthMm(stock.width, presetSidesMm, 'stock.widthMm', true)
-  const requestStock: CreateNestRunRequest['stock'] =
-    stock.kind === 'sheets'
-      ? { kind: 'sheets', widthMm: widthMm ?? 0, heightMm: lengthMm(stock.height, presetSidesMm, 'stock.heightMm', true) ?? 0 }
-      : { kind: 'roll', widthMm: widthMm ?? 0, maxLengthMm: lengthMm(stock.length, [], 'stock.maxLengthMm', false) }
+  const remnant = stock.remnant
+  const requestStock: CreateNestRunRequest['stock'] = remnant
+    ? { kind: 'polygon', outline: remnant.outline, ...(remnant.holes.length > 0 ? { holes: remnant.holes } : {}) }
+    : stock.kind === 'sheets'
+      ? { kind: 'sheets', widthMm: lengthMm(stock.width, presetSidesMm, 'stock.widthMm', true) ?? 0, heightMm: lengthMm(stock.height, presetSidesMm, 'stock.heightMm', true) ?? 0 }
+      : { kind: 'roll', widthMm: lengthMm(stock.width, presetSidesMm, 'stock.widthMm', true) ?? 0, maxLengthMm: lengthMm(stock.length, [], 'stock.maxLengthMm', false) }
 
   items.forEach((item, index) => {
     if (item.quantity === null) errors[`items.${index}.quantity`] = 'Enter how many copies'

@@ -27,6 +27,11 @@ export function listStock(workspaceId: string, query: StockListFilter): Promise<
   })
 }
 
+/** Remnants kept from jobs (active ones, newest first as the server lists them), for the stock pickers of layouts and nest runs. */
+export function listRemnants(workspaceId: string, pageSize = 100): Promise<StockListResponse> {
+  return request(`/api/workspaces/${segment(workspaceId)}/remnants`, { query: { status: 'active', page: 1, pageSize }, schema: stockListResponseSchema })
+}
+
 export function createStock(workspaceId: string, body: CreateStockRequest): Promise<StockItem> {
   return request(stockPath(workspaceId), { method: 'POST', body, schema: stockItemSchema })
 }

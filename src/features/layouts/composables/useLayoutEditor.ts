@@ -2,6 +2,7 @@ import { computed, onScopeDispose, ref, shallowRef, watch, type Ref } from 'vue'
 import * as actions from '../../../../shared/layout/actions'
 import { createConflictTracker, type ConflictEnvironment, type PieceConflict } from '../../../../shared/layout/conflicts'
 import { laneCount, usableArea, type LayoutDocument } from '../../../../shared/layout/document'
+import { usableRegionOf } from '../../../../shared/layout/polygonStock'
 import { computeLayoutFigures, type DesignForLayout } from '../../../../shared/layout/figures'
 import { createHistory, type History } from '../../../../shared/layout/history'
 import { mergeLayoutChanges, sameDocument } from '../../../../shared/layout/merge'
@@ -84,6 +85,7 @@ export function useLayoutEditor(workspaceId: Ref<string>, layoutId: Ref<string>,
       },
       spacingMm: current.options.spacingMm,
       usable: usableArea(current.stock, current.options),
+      usableRegion: usableRegionOf(current.stock, current.options.marginMm),
       laneCount: laneCount(current.stock),
       zonesOf: (sheet) => zonePolygons.get(sheet) ?? [],
       orientationAllowed: (id) => {
@@ -498,8 +500,10 @@ export function useLayoutEditor(workspaceId: Ref<string>, layoutId: Ref<string>,
     commit('Change item options', actions.updateItem(current(), designId, patch))
   }
 
-  function setStock(stock: LayoutStock): void {
-    commit('Change the stock', actions.setStock(current(), stock))
+  /** A new stock; a stock from the shelf brings the margin it suggests (a remnant's is already inside its outline), in the same undo step. */
+  function setStock(stock: LayoutStock, marginMm?: number): void {
+    const next = actions.setStock(current(), stock)
+    commit('Change the stock', marginMm === undefined ? next : actions.setOptions(next, { marginMm }))
   }
 
   function setOptions(patch: Partial<LayoutOptions>, label = 'Change settings'): void {
