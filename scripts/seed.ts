@@ -40,7 +40,8 @@ async function seedStudio(): Promise<{ workspaceId: string; ownerId: string }> {
       .select({ id: workspaces.id })
       .from(workspaces)
       .innerJoin(memberships, eq(memberships.workspaceId, workspaces.id))
-      .where(eq(memberships.userId, ownerId))
+      // By name too: the demo owner may also own other workspaces (made by hand, or by a test).
+      .where(and(eq(memberships.userId, ownerId), eq(memberships.role, 'owner'), eq(workspaces.name, demoStudio.name)))
     const workspaceId = existing?.id ?? (await tx.insert(workspaces).values({ name: demoStudio.name }).returning())[0]!.id
     for (const member of demoStudio.members) {
       await tx.insert(memberships).values({ workspaceId, userId: userIds[member.email]!, role: member.role }).onConflictDoNothing()
