@@ -92,6 +92,8 @@ export function createApp(context: AppContext): Express {
   api.use('/workspaces/:workspaceId/remnants', remnantsRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/dashboard', dashboardRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/pricing', pricingRoutes(context, signedIn))
+  // The same settings under the pricing prefix, for clients that address settings by area first.
+  api.use('/pricing/:workspaceId', pricingRoutes(context, signedIn))
   api.use('/workspaces/:workspaceId/quotes', quotesRoutes(context, signedIn))
   api.use('/public/quotes', publicQuotesRoutes(context))
   api.use('/workspaces', workspacesRoutes(context, signedIn))

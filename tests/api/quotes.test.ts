@@ -41,6 +41,13 @@ describe('pricing settings', () => {
     const maker = await addMember(owner, 'maker')
     await api().get(url).set(bearer(maker.accessToken)).expect(200)
     await api().put(url).set(bearer(maker.accessToken)).send(pricing).expect(403)
+
+    // The pricing prefix reaches the same settings, with the same roles.
+    const underPricing = await api().get(`/api/pricing/${owner.workspace.id}`).set(bearer(maker.accessToken)).expect(200)
+    expect(underPricing.body).toEqual(saved.body)
+    await api().put(`/api/pricing/${owner.workspace.id}`).set(bearer(maker.accessToken)).send(pricing).expect(403)
+    const stranger = await signUp('pricing-stranger')
+    await api().get(`/api/pricing/${owner.workspace.id}`).set(bearer(stranger.accessToken)).expect(404)
   })
 
   it('refuses bad values and names the field', async () => {
