@@ -16,7 +16,9 @@ export default defineConfig({
     environment: 'node',
     pool: 'forks',
     maxWorkers: 2,
-    testTimeout: 30_000,
+    // Browser tests share two cores with the server and another test file; several take 20–50 s on a busy run, so the
+    // limit leaves room for a slower machine rather than failing on load.
+    testTimeout: 90_000,
     hookTimeout: 60_000,
     reporters: ['default'],
   },
