@@ -40,6 +40,8 @@ export const cutPlanExportQuerySchema = cutPlanQuerySchema.extend({
   format: z.enum(exportFormats, { error: `Choose a format: ${exportFormats.join(', ')}` }),
   /** 0-based sheet index, as in placements; the job sheet (pdf) covers every sheet when it is left out. */
   sheet: z.coerce.number({ error: 'Sheet must be a number' }).int({ error: 'Sheet must be a whole number' }).min(0, { error: 'Sheet cannot be negative' }).optional(),
+  /** The job sheet names this material and prints its recipe for the cutter's tool (a job's own sheet). */
+  materialId: z.uuid({ error: 'Not a valid material id' }).optional(),
 })
 export type CutPlanExportQuery = z.output<typeof cutPlanExportQuerySchema>
 

@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto'
+import { inflateSync } from 'node:zlib'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { cutPlanResponseSchema } from '../../shared/schemas/cutplan.js'
 import { addMember, api, bearer, signUp, type SignedUpUser } from './helpers.js'
@@ -24,6 +25,28 @@ const binary = (response: { on: (event: string, listener: (chunk?: Buffer) => vo
   const chunks: Buffer[] = []
   response.on('data', (chunk?: Buffer) => chunks.push(chunk!))
   response.on('end', () => callback(null, Buffer.concat(chunks)))
+}
+
+/**
+ * The text a PDF draws, in order: every deflated content stream's hex strings (how pdfkit writes text in the standard
+ * fonts) decoded and joined, so kerning breaks inside a word do not split it.
+ */
+function pdfText(pdf: Buffer): string {
+  const raw = pdf.toString('latin1')
+  let text = ''
+  for (let start = raw.indexOf('stream\n'); start !== -1; start = raw.indexOf('stream\n', start + 1)) {
+    const end = raw.indexOf('endstream', start)
+    if (end === -1) break
+    let content: string
+    try {
+      content = inflateSync(pdf.subarray(start + 'stream\n'.length, end)).toString('latin1')
+    } catch {
+      continue
+    }
+    for (const match of content.matchAll(/<([0-9a-fA-F]+)>/g)) text += Buffer.from(match[1]!, 'hex').toString('latin1')
+    text += '\n'
+  }
+  return text
 }
 
 describe('cut plans and exports of saved layouts', () => {
@@ -106,6 +129,31 @@ describe('cut plans and exports of saved layouts', () => {
     const body = response.body as Buffer
     expect(body.subarray(0, 5).toString('latin1')).toBe('%PDF-')
     expect(body.length).toBeGreaterThan(2000)
+  })
+
+  it('names the job’s material and prints its recipe on the job sheet, and leaves lines to fill in without one', async () => {
+    // Arrange: a catalogue material of the workspace with its blade recipe.
+    const listed = await api().get(`/api/workspaces/${owner.workspace.id}/materials?search=cardstock`).set(bearer(owner.accessToken)).expect(200)
+    const material = listed.body.items[0]
+    const detail = await api().get(`/api/workspaces/${owner.workspace.id}/materials/${material.id}`).set(bearer(owner.accessToken)).expect(200)
+    const blade = detail.body.recipes.find((recipe: { toolKind: string }) => recipe.toolKind === 'blade')
+
+    // Act: the job sheet with and without the material.
+    const withMaterial = await api().get(`${base}/export?format=pdf&materialId=${material.id}`).set(bearer(owner.accessToken)).buffer(true).parse(binary).expect(200)
+    const without = await api().get(`${base}/export?format=pdf`).set(bearer(owner.accessToken)).buffer(true).parse(binary).expect(200)
+
+    // Assert: the material's name and its recipe in words; blanks otherwise.
+    const text = pdfText(withMaterial.body as Buffer)
+    expect(text).toContain(`Material: ${material.name}`)
+    expect(text).toContain(`force ${blade.force}, ${blade.passes} pass`)
+    expect(text).not.toContain('Material: ____')
+    expect(pdfText(without.body as Buffer)).toContain('Material: ____')
+
+    // A material of another workspace is not found.
+    const stranger = await signUp('cutplan-stranger')
+    const theirs = await api().get(`/api/workspaces/${stranger.workspace.id}/materials?search=cardstock`).set(bearer(stranger.accessToken)).expect(200)
+    const refused = await api().get(`${base}/export?format=pdf&materialId=${theirs.body.items[0].id}`).set(bearer(owner.accessToken)).expect(400)
+    expect(refused.body.error.fields).toHaveProperty(['query.materialId'])
   })
 
   it('answers 400 naming the field for a bad sheet, format or option', async () => {

@@ -7,7 +7,7 @@ import type { CutPlanExportQuery, CutPlanQuery, CutPlanResponse } from '../../..
 import type { AppContext } from '../../context.js'
 import { invalidField, notFound } from '../../errors.js'
 import { findLayout } from '../layouts/layouts.repo.js'
-import { findDesignsForCutPlan } from './cutplan.repo.js'
+import { findDesignsForCutPlan, findMaterialWithRecipe } from './cutplan.repo.js'
 import { findCutter } from '../cutters/cutters.repo.js'
 import { profileOfCutter } from '../cutters/cutterProfile.js'
 import { jobSheetPdf } from './jobSheet.js'
@@ -85,6 +85,23 @@ function fileStem(name: string): string {
   return safe || 'layout'
 }
 
+/** The recipe as a maker reads it at the machine: blade, force, passes and speed, or laser power. */
+export function recipeInWords(recipe: { toolKind: 'blade' | 'laser'; bladeType: string | null; bladeAngleDeg: number | null; force: number | null; passes: number; speedMmS: number; powerPercent: number | null }): string {
+  const passes = `${recipe.passes} ${recipe.passes === 1 ? 'pass' : 'passes'}`
+  if (recipe.toolKind === 'laser') return [`power ${recipe.powerPercent ?? '?'} %`, `speed ${recipe.speedMmS} mm/s`, passes].join(', ')
+  const blade = recipe.bladeType ? `${recipe.bladeType} blade${recipe.bladeAngleDeg !== null ? ` ${recipe.bladeAngleDeg}°` : ''}` : 'blade not set'
+  return [blade, `force ${recipe.force ?? 'not set'}`, passes, `speed ${recipe.speedMmS} mm/s`].join(', ')
+}
+
+/** The material named on a job sheet, with its recipe for the chosen cutter's tool (a blade unless the cutter is a laser). */
+async function materialForJobSheet(context: AppContext, workspaceId: string, materialId: string, cutterId: string | undefined): Promise<{ name: string; recipeText: string }> {
+  const cutter = cutterId ? await findCutter(context.db, workspaceId, cutterId) : undefined
+  const toolKind = cutter?.toolKind === 'laser' ? 'laser' : 'blade'
+  const found = await findMaterialWithRecipe(context.db, workspaceId, materialId, toolKind)
+  if (!found) throw invalidField('query.materialId', 'No such material in this workspace')
+  return { name: found.name, recipeText: found.recipe ? recipeInWords(found.recipe) : `no ${toolKind} recipe recorded for this material` }
+}
+
 export async function exportCutPlan(context: AppContext, workspaceId: string, layoutId: string, query: CutPlanExportQuery): Promise<ExportFile> {
   const { layout, designs, plan } = await planSavedLayout(context, workspaceId, layoutId, query)
   const sheetCount = plan.sheets.length
@@ -102,6 +119,7 @@ export async function exportCutPlan(context: AppContext, workspaceId: string, la
     return { contentType: 'application/vnd.hp-hpgl', filename: `${stem}${sheetPart}.plt`, body: sheetToHpgl(plan.sheets[query.sheet!]!, plan.profile) }
   }
   const sheets = query.sheet === undefined ? plan.sheets : [plan.sheets[query.sheet]!]
-  const body = await jobSheetPdf({ layoutName: layout.name, stock: layout.stock, plan, sheets, designs, placements: layout.placements })
+  const material = query.materialId ? await materialForJobSheet(context, workspaceId, query.materialId, query.cutterId) : undefined
+  const body = await jobSheetPdf({ layoutName: layout.name, stock: layout.stock, plan, sheets, designs, placements: layout.placements, material })
   return { contentType: 'application/pdf', filename: `${stem}${sheetPart}-job-sheet.pdf`, body }
 }

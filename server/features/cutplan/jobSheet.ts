@@ -11,6 +11,8 @@ export interface JobSheetInput {
   sheets: SheetCutPlan[]
   designs: ReadonlyMap<string, DesignForCutPlan>
   placements: readonly PlacementForCutPlan[]
+  /** The job's material and its recipe in words; without it the sheet leaves lines to fill in by hand. */
+  material?: { name: string; recipeText: string }
 }
 
 /** Checks, easiest first, when cuts do not go through (common practice of blade cutting, in our own words). */
@@ -83,7 +85,12 @@ export function jobSheetPdf(input: JobSheetInput): Promise<Buffer> {
         : `Roll ${Math.round(input.stock.widthMm)} mm wide`
   doc.font('Helvetica').fontSize(10).text(`${stockText}. Cutter profile: ${input.plan.profile.name} (cut ${input.plan.profile.cutSpeedMmS} mm/s, travel ${input.plan.profile.travelSpeedMmS} mm/s). Passes: ${input.plan.options.passes}.`)
   doc.moveDown(0.5)
-  doc.font('Helvetica-Bold').fontSize(10).text('Material: ______________________   Blade / force / speed: ______________________')
+  if (input.material) {
+    doc.font('Helvetica-Bold').fontSize(10).text(`Material: ${input.material.name}`)
+    doc.font('Helvetica').fontSize(10).text(`Recipe: ${input.material.recipeText}`)
+  } else {
+    doc.font('Helvetica-Bold').fontSize(10).text('Material: ______________________   Blade / force / speed: ______________________')
+  }
   doc.moveDown(0.8)
 
   doc.font('Helvetica-Bold').fontSize(13).text('Whole job')

@@ -150,7 +150,7 @@ function linksOf(workspaceId: string, job: repo.JobRow, passes: number, sheetCou
   const shared = `passes=${passes}${job.cutterId ? `&cutterId=${job.cutterId}` : ''}`
   return {
     cutPlan: `${layoutPath}/cut-plan?${shared}`,
-    jobSheetPdf: `${layoutPath}/export?format=pdf&${shared}`,
+    jobSheetPdf: `${layoutPath}/export?format=pdf&${shared}${job.materialId ? `&materialId=${job.materialId}` : ''}`,
     sheets: Array.from({ length: sheetCount }, (_, sheet) => ({
       sheet,
       svg: `${layoutPath}/export?format=svg&sheet=${sheet}&${shared}`,
