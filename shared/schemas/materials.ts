@@ -254,9 +254,12 @@ export const testCutSchema = z.object({
   toolKind: recipeToolKindSchema,
   /** The recipe as it was cut. */
   recipe: recipeValuesSchema,
-  /** Cutters and blades get their own records later; until then these stay null. */
+  /** The cutter and the blade in it when the cut was made; null when not recorded. */
   cutterId: z.string().nullable(),
   bladeId: z.string().nullable(),
+  cutterName: z.string().nullable(),
+  /** The blade in words, e.g. "standard blade 45°". */
+  bladeText: z.string().nullable(),
   /** The cutter's highest force when given: the suggestion adds a pass instead of force past it. */
   cutterMaxForce: z.number().nullable(),
   outcome: testCutOutcomeSchema,

@@ -351,8 +351,17 @@ describe('test cuts and suggestions', () => {
       .set(bearer(owner.accessToken))
       .send({ outcome: 'not_through', force: 250, cutterMaxForce: 250, cutterId: cutter.body.id })
       .expect(201)
-    expect(logged.body).toMatchObject({ cutterMaxForce: 250, cutterId: cutter.body.id, bladeId: null, recipe: { force: 250 } })
+    expect(logged.body).toMatchObject({ cutterMaxForce: 250, cutterId: cutter.body.id, bladeId: null, cutterName: 'Test bench', bladeText: null, recipe: { force: 250 } })
     expect(logged.body.suggestion).toMatchObject({ action: 'add-pass', changes: [{ field: 'passes', from: 1, to: 2 }] })
+
+    // With a blade fitted, a test cut on that cutter records the blade too and says which it was.
+    const blade = await api()
+      .post(`/api/workspaces/${owner.workspace.id}/cutters/${cutter.body.id}/blades`)
+      .set(bearer(owner.accessToken))
+      .send({ bladeType: 'standard', angleDeg: 45 })
+      .expect(201)
+    const withBlade = await api().post(testCutsUrl).set(bearer(owner.accessToken)).send({ outcome: 'clean', cutterId: cutter.body.id }).expect(201)
+    expect(withBlade.body).toMatchObject({ cutterId: cutter.body.id, bladeId: blade.body.id, cutterName: 'Test bench', bladeText: 'standard blade 45°' })
   })
 
   it("refuses a force outside the cutter's range and other bad test cuts", async () => {
@@ -370,9 +379,11 @@ describe('test cuts and suggestions', () => {
 
   it('lists test cuts newest first, paged', async () => {
     const list = testCutListResponseSchema.parse((await api().get(testCutsUrl).query({ pageSize: 2 }).set(bearer(owner.accessToken)).expect(200)).body)
-    expect(list.total).toBe(4)
+    expect(list.total).toBe(5)
     expect(list.items).toHaveLength(2)
-    expect(list.items[0]!.outcome).toBe('not_through')
+    // The newest: the clean cut with a fitted blade logged above.
+    expect(list.items[0]!.outcome).toBe('clean')
+    expect(list.items[0]!.bladeText).toBe('standard blade 45°')
     expect(Date.parse(list.items[0]!.createdAt)).toBeGreaterThanOrEqual(Date.parse(list.items[1]!.createdAt))
   })
 })

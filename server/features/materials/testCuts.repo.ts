@@ -1,7 +1,7 @@
 import { and, count, desc, eq, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import type { DatabaseOrTransaction } from '../../db/client.js'
-import { testCutPhotos, testCuts, users } from '../../db/schema/index.js'
+import { blades, cutters, testCutPhotos, testCuts, users } from '../../db/schema/index.js'
 
 export type TestCutRow = typeof testCuts.$inferSelect
 export type NewTestCutRow = typeof testCuts.$inferInsert
@@ -14,8 +14,19 @@ const listColumns = {
   createdByName: author.name,
   appliedByName: applier.name,
   hasPhoto: sql<boolean>`exists (select 1 from ${testCutPhotos} where ${testCutPhotos.testCutId} = ${testCuts.id})`,
+  cutterName: cutters.name,
+  bladeType: blades.bladeType,
+  bladeAngleDeg: blades.angleDeg,
 }
-export type TestCutWithNames = { testCut: TestCutRow; createdByName: string | null; appliedByName: string | null; hasPhoto: boolean }
+export type TestCutWithNames = {
+  testCut: TestCutRow
+  createdByName: string | null
+  appliedByName: string | null
+  hasPhoto: boolean
+  cutterName: string | null
+  bladeType: string | null
+  bladeAngleDeg: number | null
+}
 
 function withNames(where: SQL | undefined) {
   return (db: DatabaseOrTransaction) =>
@@ -24,6 +35,8 @@ function withNames(where: SQL | undefined) {
       .from(testCuts)
       .leftJoin(author, eq(author.id, testCuts.createdBy))
       .leftJoin(applier, eq(applier.id, testCuts.suggestionAppliedBy))
+      .leftJoin(cutters, and(eq(cutters.id, testCuts.cutterId), eq(cutters.workspaceId, testCuts.workspaceId)))
+      .leftJoin(blades, and(eq(blades.id, testCuts.bladeId), eq(blades.workspaceId, testCuts.workspaceId)))
       .where(where)
 }
 

@@ -60,6 +60,8 @@ function toTestCut(row: repo.TestCutWithNames, settings: MaterialSettings, recip
     recipe: testCut.recipe,
     cutterId: testCut.cutterId,
     bladeId: testCut.bladeId,
+    cutterName: row.cutterName,
+    bladeText: row.bladeType ? `${row.bladeType} blade${row.bladeAngleDeg !== null ? ` ${row.bladeAngleDeg}°` : ''}` : null,
     cutterMaxForce: testCut.cutterMaxForce,
     outcome: testCut.outcome,
     note: testCut.note,
