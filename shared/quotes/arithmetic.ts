@@ -113,6 +113,56 @@ export function priceQuote(input: readonly QuoteLineInput[], totals: QuoteTotals
   }
 }
 
+/** A line as the customer reads it (public page and printed quote). */
+export interface CustomerQuoteLine {
+  description: string
+  quantity: number
+  unit: string
+  /** Null on a material line with the handling folded in: its unit price would not be a whole number of cents. */
+  unitPriceMinor: number | null
+  amountMinor: number
+  arithmetic: string
+}
+
+/**
+ * The lines a customer sees: the markup is folded into the material lines, shared in proportion to their amounts
+ * (whole cents, the cents left over to the largest lines first), so the studio's margin is not itemised while every sum
+ * stays the same. Lines of other kinds pass unchanged; a markup line with nothing to fold into stays as it is.
+ */
+export function customerLines(lines: readonly PricedQuoteLine[], currency: string): CustomerQuoteLine[] {
+  const money = (minor: number) => formatMinor(minor, currency)
+  const materials = lines.filter((line) => line.kind === 'material')
+  const materialMinor = materials.reduce((sum, line) => sum + line.amountMinor, 0)
+  const markupMinor = lines.filter((line) => line.kind === 'markup').reduce((sum, line) => sum + line.amountMinor, 0)
+  const fold = materials.length > 0 && materialMinor > 0
+  const share = new Map<PricedQuoteLine, number>()
+  if (fold) {
+    for (const line of materials) share.set(line, Math.floor((markupMinor * line.amountMinor) / materialMinor))
+    let left = markupMinor - [...share.values()].reduce((sum, value) => sum + value, 0)
+    for (const line of [...materials].sort((a, b) => b.amountMinor - a.amountMinor)) {
+      if (left <= 0) break
+      share.set(line, share.get(line)! + 1)
+      left -= 1
+    }
+  }
+  const plain = (line: PricedQuoteLine): CustomerQuoteLine => ({
+    description: line.description,
+    quantity: line.quantity,
+    unit: line.unit,
+    unitPriceMinor: line.unitPriceMinor,
+    amountMinor: line.amountMinor,
+    arithmetic: line.arithmetic,
+  })
+  return lines.flatMap((line): CustomerQuoteLine[] => {
+    if (!fold) return [plain(line)]
+    if (line.kind === 'markup') return []
+    const extra = share.get(line) ?? 0
+    if (line.kind !== 'material' || extra === 0) return [plain(line)]
+    const amountMinor = line.amountMinor + extra
+    return [{ ...plain(line), unitPriceMinor: null, amountMinor, arithmetic: `${quantityWithUnit(line.quantity, line.unit)}, handling included = ${money(amountMinor)}` }]
+  })
+}
+
 /** What a job (or a comparison row) used, per run of its layout, and the price of its stock. */
 export interface JobFactsForQuote {
   stockName: string

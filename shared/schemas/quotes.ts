@@ -197,7 +197,8 @@ export const publicQuoteSchema = quoteTotalsSchema.extend({
   customerName: z.string(),
   currency: z.string(),
   status: quoteStatusSchema,
-  lines: z.array(pricedQuoteLineSchema.omit({ basis: true, kind: true })),
+  /** As the customer reads them: the markup folded into the material lines (shared/quotes/arithmetic.ts customerLines). */
+  lines: z.array(pricedQuoteLineSchema.omit({ basis: true, kind: true }).extend({ unitPriceMinor: z.number().nullable() })),
   sentAt: z.string().nullable(),
   expiresAt: z.string().nullable(),
   paidAt: z.string().nullable(),

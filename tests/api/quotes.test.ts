@@ -180,6 +180,12 @@ describe('sending a quote and getting paid', () => {
     expect(after.paidAt).not.toBeNull()
     const publicView = publicQuoteSchema.parse((await api().get(`/api/public/quotes/${tokenOf(sent.publicUrl!)}`).expect(200)).body)
     expect(publicView).toMatchObject({ status: 'paid', canPay: false, canRespond: false })
+    // The customer reads no markup line: it is folded into the material, and the lines still add up to the subtotal.
+    const owners = quoteDetailSchema.parse((await api().get(`${studio.quotesUrl}/${quote.id}`).set(bearer(studio.owner.accessToken)).expect(200)).body)
+    const ownerLines = owners.versions.find((version) => version.version === owners.currentVersion)!.lines
+    expect(ownerLines.some((line) => line.kind === 'markup' && line.amountMinor > 0)).toBe(true)
+    expect(publicView.lines.map((line) => line.description)).not.toContain(ownerLines.find((line) => line.kind === 'markup')!.description)
+    expect(publicView.lines.reduce((sum, line) => sum + line.amountMinor, 0)).toBe(publicView.subtotalMinor)
 
     // Paying again changes nothing: the page says it is complete, a replayed event is not applied.
     await fake.post(`${new URL(sent.payUrl!).pathname}/complete`).expect(303)

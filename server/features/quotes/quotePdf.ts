@@ -1,5 +1,5 @@
 import PDFDocument from 'pdfkit'
-import { quantityWithUnit } from '../../../shared/quotes/arithmetic.js'
+import { customerLines, quantityWithUnit } from '../../../shared/quotes/arithmetic.js'
 import { formatMinor } from '../../../shared/quotes/money.js'
 import type { QuoteRow, QuoteVersionRow } from './quotes.repo.js'
 
@@ -15,7 +15,7 @@ export interface QuotePdfInput {
 
 const day = (date: Date) => date.toISOString().slice(0, 10)
 
-/** The printable quote: studio, customer, every line with quantity, unit price and amount, the sums and the tax. A4. */
+/** The printable quote: studio, customer, the customer's lines with quantity, unit price and amount, the sums and the tax. A4. */
 export function quotePdf(input: QuotePdfInput): Promise<Buffer> {
   const { quote, version } = input
   const money = (minor: number) => formatMinor(minor, quote.currency)
@@ -60,10 +60,10 @@ export function quotePdf(input: QuotePdfInput): Promise<Buffer> {
   row(columns.map((column) => column.label), true)
   doc.moveTo(left, doc.y).lineTo(left + width, doc.y).strokeColor('#999999').stroke()
   doc.y += 4
-  for (const line of version.lines) {
+  // The printed quote goes to the customer: handling is folded into the material, as on the public page.
+  for (const line of customerLines(version.lines, quote.currency)) {
     if (doc.y > doc.page.height - 140) doc.addPage()
-    const quantity = line.unit === '%' ? quantityWithUnit(line.quantity, '%') : quantityWithUnit(line.quantity, line.unit)
-    row([line.description, quantity, money(line.unitPriceMinor), money(line.amountMinor)])
+    row([line.description, quantityWithUnit(line.quantity, line.unit), line.unitPriceMinor === null || line.unit === '%' ? '' : money(line.unitPriceMinor), money(line.amountMinor)])
   }
   doc.moveTo(left, doc.y).lineTo(left + width, doc.y).strokeColor('#999999').stroke()
   doc.y += 6

@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto'
 import { planLayout } from '../../../shared/cutplan/plan.js'
 import { cutterProfileSchema, defaultCutPlanOptions, defaultCutterProfile, type CutterProfile } from '../../../shared/cutplan/profile.js'
-import { draftQuoteLines, priceQuote, type JobFactsForQuote, type QuoteLineInput } from '../../../shared/quotes/arithmetic.js'
+import { customerLines, draftQuoteLines, priceQuote, type JobFactsForQuote, type QuoteLineInput } from '../../../shared/quotes/arithmetic.js'
 import { formatMinor, toMinor } from '../../../shared/quotes/money.js'
 import type {
   createQuoteRequestSchema,
@@ -473,7 +473,7 @@ async function publicViewOf(context: AppContext, quote: repo.QuoteRow): Promise<
     customerName: quote.customerName,
     currency: quote.currency,
     status,
-    lines: version.lines.map((line) => ({ description: line.description, quantity: line.quantity, unit: line.unit, unitPriceMinor: line.unitPriceMinor, amountMinor: line.amountMinor, arithmetic: line.arithmetic })),
+    lines: customerLines(version.lines, quote.currency),
     ...totalsOf(version, quote.currency),
     sentAt: quote.sentAt?.toISOString() ?? null,
     expiresAt: quote.expiresAt?.toISOString() ?? null,

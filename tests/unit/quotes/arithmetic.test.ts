@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { draftQuoteLines, lineAmountMinor, priceQuote, type JobFactsForQuote, type PricingForQuote } from '../../../shared/quotes/arithmetic.js'
+import { customerLines, draftQuoteLines, lineAmountMinor, priceQuote, type JobFactsForQuote, type PricingForQuote } from '../../../shared/quotes/arithmetic.js'
 import { formatMinor, minorDigits, roundHalfUp, toMinor } from '../../../shared/quotes/money.js'
 
 // Worked example by hand (prices chosen so every step is exact in cents):
@@ -95,5 +95,39 @@ describe('money in minor units', () => {
     expect(formatMinor(1350, 'JPY')).toBe('1350')
     expect(formatMinor(-5, 'EUR')).toBe('-0.05')
     expect(toMinor(4.5, 'EUR')).toBe(450)
+  })
+
+  it('folds the markup into the material line for the customer, keeping every sum', () => {
+    // The worked example above: material 27.00 + markup 10.80 = 37.80 shown as one material line.
+    const quote = priceQuote(draftQuoteLines(sheetJob, pricing), { currency: 'EUR', minimumOrderMinor: 5000, taxRatePercent: 20 })
+    const shown = customerLines(quote.lines, 'EUR')
+    expect(shown.map((line) => [line.description, line.amountMinor])).toEqual([
+      [quote.lines[0]!.description, 3780],
+      [quote.lines[2]!.description, 1200],
+      [quote.lines[3]!.description, 1080],
+      [quote.lines[4]!.description, 1000],
+    ])
+    expect(shown[0]).toMatchObject({ unitPriceMinor: null, arithmetic: '6 sheets, handling included = 37.80' })
+    expect(shown.reduce((sum, line) => sum + line.amountMinor, 0)).toBe(quote.subtotalMinor)
+  })
+
+  it('shares the markup between material lines in whole cents, the odd cent to the largest line', () => {
+    // Worked example by hand: three materials of 2.00, 1.00 and 1.00 with 10 % markup = 0.40 → shares 0.20, 0.10, 0.10;
+    // with 3 % = 0.12 → exact shares 0.06, 0.03, 0.03; with 2.5 % = 0.10 → 0.05, 0.025, 0.025 → floors 5, 2, 2 and the
+    // cent left over to the largest line: 0.06, 0.02, 0.02.
+    const material = (description: string, unitPriceMinor: number) => ({ kind: 'material' as const, description, quantity: 1, unit: 'sheet', unitPriceMinor })
+    const markup = (percent: number) => ({ kind: 'markup' as const, description: 'Handling', quantity: percent, unit: '%', unitPriceMinor: 0 })
+    const folded = (percent: number) =>
+      customerLines(priceQuote([material('A', 200), material('B', 100), material('C', 100), markup(percent)], { currency: 'EUR', minimumOrderMinor: 0, taxRatePercent: 0 }).lines, 'EUR').map(
+        (line) => line.amountMinor,
+      )
+    expect(folded(10)).toEqual([220, 110, 110])
+    expect(folded(3)).toEqual([206, 103, 103])
+    expect(folded(2.5)).toEqual([206, 102, 102])
+  })
+
+  it('leaves a quote without material lines as it is', () => {
+    const lines = priceQuote([{ kind: 'setup', description: 'Setup', quantity: 1, unit: 'job', unitPriceMinor: 800 }], { currency: 'EUR', minimumOrderMinor: 0, taxRatePercent: 0 }).lines
+    expect(customerLines(lines, 'EUR')).toEqual([{ description: 'Setup', quantity: 1, unit: 'job', unitPriceMinor: 800, amountMinor: 800, arithmetic: '1 job × 8.00 = 8.00' }])
   })
 })
