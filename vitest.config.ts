@@ -20,6 +20,9 @@ export default defineConfig({
     // limit leaves room for a slower machine rather than failing on load.
     testTimeout: 90_000,
     hookTimeout: 60_000,
+    // expect.poll gives up after 1 s by default: too short for a page reload (session refresh, then its requests)
+    // while the other test file keeps both cores busy.
+    expect: { poll: { timeout: 15_000, interval: 100 } },
     reporters: ['default'],
   },
 })
