@@ -31,54 +31,79 @@ function lockedCounts(document: LayoutDocument): Map<string, number> {
   return counts
 }
 
+/** A zone for a nest run: on one sheet, or on every sheet when `sheet` is left out. */
+export interface SheetZone {
+  sheet?: number
+  outline: Ring
+}
+
+/** The engine's sheet of a layout sheet: sheets keep their index; a roll or a polygon stock is one lane, sheet 0. */
+const runSheetOf = (document: LayoutDocument, sheet: number) => (document.stock.kind === 'sheets' ? sheet : 0)
+
 /**
- * The areas locked pieces keep clear: every locked outline grown by the spacing (so arranged pieces keep the spacing
- * from them whatever the search does with zones), merged where they meet, holes left out (a zone has none).
+ * The areas locked pieces keep clear, each on its piece's sheet: every locked outline grown by the spacing (so
+ * arranged pieces keep the spacing from them whatever the search does with zones), merged where they meet on the
+ * same sheet, holes left out (a zone has none). Sorted by sheet, so the request is the same for the same layout.
  */
-export function lockedZones(document: LayoutDocument, shapes: ShapeCache): Ring[] {
-  const grown: IntPath[] = []
+export function lockedZones(document: LayoutDocument, shapes: ShapeCache): SheetZone[] {
+  const grownBySheet = new Map<number, IntPath[]>()
   const grow = (document.options.spacingMm + ZONE_SIMPLIFY_MM) * ZONE_SCALE
   for (const placement of document.placements) {
     if (!placement.locked) continue
     const shape = shapes.shapeOf(placement)
     if (!shape) continue
+    const sheet = runSheetOf(document, placement.sheet)
+    const grown = grownBySheet.get(sheet) ?? []
     for (const polygon of shape.polygons) {
       const ring: Ring = []
       for (let index = 0; index < polygon.outer.length; index += 2) ring.push([polygon.outer[index]!, polygon.outer[index + 1]!])
       grown.push(...offsetPaths([orient(toIntPath(ring, ZONE_SCALE), true)], grow))
     }
+    grownBySheet.set(sheet, grown)
   }
-  if (grown.length === 0) return []
-  const merged = unionPaths(grown).filter((path) => pathArea(path) > 0)
-  return ClipperLib.Clipper.CleanPolygons(merged, ZONE_SIMPLIFY_MM * ZONE_SCALE)
-    .filter((path) => path.length >= 3)
-    .map((path) => fromIntPath(path, ZONE_SCALE))
+  const zones: SheetZone[] = []
+  for (const sheet of [...grownBySheet.keys()].sort((left, right) => left - right)) {
+    const merged = unionPaths(grownBySheet.get(sheet)!).filter((path) => pathArea(path) > 0)
+    for (const path of ClipperLib.Clipper.CleanPolygons(merged, ZONE_SIMPLIFY_MM * ZONE_SCALE)) {
+      if (path.length >= 3) zones.push({ sheet, outline: fromIntPath(path, ZONE_SCALE) })
+    }
+  }
+  return zones
 }
 
-/** Fewer zones, never less area kept clear: the two zones whose boxes' centres lie closest become their convex hull, until `limit` remain. */
-export function capZones(zones: Ring[], limit: number): Ring[] {
-  const list = zones.map((zone) => zone.map(([x, y]) => [x, y] as [number, number]))
-  const centre = (zone: Ring) => {
-    const xs = zone.map(([x]) => x)
-    const ys = zone.map(([, y]) => y)
+/**
+ * Fewer zones, never less area kept clear: the two zones of the same sheet whose boxes' centres lie closest become
+ * their convex hull, until `limit` remain. Only when no two zones share a sheet do two of different sheets merge,
+ * into a hull kept clear on every sheet (more than needed, never less).
+ */
+export function capZones(zones: SheetZone[], limit: number): SheetZone[] {
+  const list: SheetZone[] = zones.map((zone) => ({ ...(zone.sheet !== undefined ? { sheet: zone.sheet } : {}), outline: zone.outline.map(([x, y]) => [x, y] as [number, number]) }))
+  const centre = (zone: SheetZone) => {
+    const xs = zone.outline.map(([x]) => x)
+    const ys = zone.outline.map(([, y]) => y)
     return [(Math.min(...xs) + Math.max(...xs)) / 2, (Math.min(...ys) + Math.max(...ys)) / 2] as const
   }
   while (list.length > Math.max(1, limit)) {
     let best: [number, number] = [0, 1]
     let bestDistance = Infinity
+    let bestSameSheet = false
     const centres = list.map(centre)
     for (let i = 0; i < list.length; i++) {
       for (let j = i + 1; j < list.length; j++) {
+        const sameSheet = list[i]!.sheet === list[j]!.sheet
+        if (bestSameSheet && !sameSheet) continue
         const distance = Math.hypot(centres[i]![0] - centres[j]![0], centres[i]![1] - centres[j]![1])
-        if (distance < bestDistance) {
+        if ((sameSheet && !bestSameSheet) || distance < bestDistance) {
           bestDistance = distance
           best = [i, j]
+          bestSameSheet = sameSheet
         }
       }
     }
-    const hull = convexHull([...list[best[0]]!, ...list[best[1]]!])
+    const [first, second] = [list[best[0]]!, list[best[1]]!]
+    const hull = convexHull([...first.outline, ...second.outline])
     list.splice(best[1], 1)
-    list.splice(best[0], 1, hull)
+    list.splice(best[0], 1, bestSameSheet && first.sheet !== undefined ? { sheet: first.sheet, outline: hull } : { outline: hull })
   }
   return list
 }
@@ -94,9 +119,10 @@ export function nestStockOfLayoutStock(stock: LayoutStock): CreateNestRunRequest
 
 /**
  * The nest-run request that arranges a layout's unlocked pieces: its items less the copies locked pieces already
- * hold, its stock (a roll without an end, sheets without a count), spacing and margin. Locked pieces and the
- * layout's excluded zones become excluded zones; a nest run's zones apply to every sheet, so a locked piece's area is
- * kept clear on every sheet, not only its own.
+ * hold, its stock (a roll without an end, sheets without a count), spacing and margin. The layout's excluded zones
+ * and the locked pieces (grown by the spacing) become the run's excluded zones, each naming its own sheet, so a piece
+ * locked on one sheet keeps only that sheet's area clear. The run's sheets are the layout's sheets, index for index,
+ * so its placements map straight back (arrangementFromNestResult); a roll or a polygon stock is sheet 0.
  */
 export function nestRequestFromLayout(document: LayoutDocument, environment: { designs: ReadonlyMap<string, DesignForLayout>; shapes: ShapeCache }, timeBudgetSeconds: number): ArrangeRequestResult {
   const locked = lockedCounts(document)
@@ -122,8 +148,8 @@ export function nestRequestFromLayout(document: LayoutDocument, environment: { d
   if (document.items.length === 0) return { request: null, reason: 'Add a design first: there is nothing to arrange.' }
   if (items.length === 0) return { request: null, reason: 'Every piece is locked: unlock the pieces that may move.' }
 
-  const ownZones = document.options.excludedZones.map((zone) => zone.outline)
-  const zones = capZones([...ownZones, ...lockedZones(document, environment.shapes)], NEST_ZONE_LIMIT)
+  const ownZones: SheetZone[] = document.options.excludedZones.map((zone) => ({ sheet: runSheetOf(document, zone.sheet), outline: zone.outline }))
+  const zones = capZones([...ownZones, ...lockedZones(document, environment.shapes)], NEST_ZONE_LIMIT).map((zone) => (zone.sheet === undefined ? zone.outline : { sheet: zone.sheet, outline: zone.outline }))
   const { stock } = document
   return {
     request: {

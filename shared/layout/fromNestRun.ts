@@ -1,13 +1,14 @@
 import type { NestRunDto } from '../schemas/nesting.js'
 import type { CreateLayoutRequest, LayoutStock } from '../schemas/layouts.js'
 import { boundingBox } from '../geometry/polygon.js'
+import { nestZonesOf } from '../nesting/designItems.js'
 import { MAX_SHEETS } from './actions.js'
 
 /**
  * A new layout from a finished nest run (the "Open as layout" of a result): the run's items, stock, spacing, margin
- * and placements. A nest run's excluded zones apply to every sheet, so each sheet gets its own copy. A stock of its own
- * outline (a remnant) becomes a polygon stock drawn in the box from (0, 0) to its furthest point; null when its
- * outline reaches below 0, which a layout cannot draw.
+ * and placements. A run's zone of every sheet is copied onto each sheet; a zone of one sheet stays on that sheet. A
+ * stock of its own outline (a remnant) becomes a polygon stock drawn in the box from (0, 0) to its furthest point;
+ * null when its outline reaches below 0, which a layout cannot draw.
  */
 export function layoutFromNestRun(run: Pick<NestRunDto, 'request' | 'result'>, name: string, newId: () => string): CreateLayoutRequest | null {
   const { request, result } = run
@@ -24,7 +25,10 @@ export function layoutFromNestRun(run: Pick<NestRunDto, 'request' | 'result'>, n
     stock = { kind: 'roll', widthMm: request.stock.widthMm, lengthMm: Math.max(Math.ceil(result.lengthMm), request.stock.widthMm) }
   }
   const lanes = stock.kind === 'sheets' ? sheetCount : 1
-  const excludedZones = (request.excludedZones ?? []).flatMap((outline) => Array.from({ length: lanes }, (_, sheet) => ({ sheet, outline }))).slice(0, 100)
+  // A layout keeps zones per sheet: a zone of every sheet is copied onto each, a zone of one sheet goes to that sheet.
+  const excludedZones = nestZonesOf(request.excludedZones)
+    .flatMap(({ sheet, outline }) => (sheet === undefined ? Array.from({ length: lanes }, (_, lane) => ({ sheet: lane, outline })) : sheet < lanes ? [{ sheet, outline }] : []))
+    .slice(0, 100)
   return {
     name,
     isTemplate: false,

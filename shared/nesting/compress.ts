@@ -1,4 +1,5 @@
 import type { CachedRegion, Container, NoFitCache, Obstacle, PlacedPart } from './construct.js'
+import { zoneAppliesToSheet } from './types.js'
 import type { Variant } from './variants.js'
 
 /**
@@ -173,6 +174,9 @@ export function compressStrip(
   const weights = new Float64Array(count * count).fill(1)
   const depths = new Float64Array(count * count)
   const obstacleCount = obstacles.length
+  // An obstacle acts only on the parts of its own sheet (every sheet when it names none); parts keep their sheet.
+  const obstacleActs = new Uint8Array(count * obstacleCount)
+  start.forEach((part, index) => obstacles.forEach((obstacle, k) => (obstacleActs[index * obstacleCount + k] = zoneAppliesToSheet(obstacle, part.sheet) ? 1 : 0)))
   const obstacleWeights = new Float64Array(count * obstacleCount).fill(1)
   const obstacleDepths = new Float64Array(count * obstacleCount)
 
@@ -218,6 +222,7 @@ export function compressStrip(
       }
     }
     for (let k = 0; k < obstacleCount; k++) {
+      if (!obstacleActs[index * obstacleCount + k]) continue
       const obstacleBox = obstacleBounds[k]!
       if (obstacleBox.minX >= maxX || obstacleBox.maxX <= minX || obstacleBox.minY >= maxY || obstacleBox.maxY <= minY) continue
       const depth = penetrationDepth(obstacleRegionOf(obstacles[k]!, variant), x, y)
@@ -243,7 +248,7 @@ export function compressStrip(
       depths[index * count + other] = depth
       depths[other * count + index] = depth
     }
-    for (let k = 0; k < obstacleCount; k++) obstacleDepths[index * obstacleCount + k] = penetrationDepth(obstacleRegionOf(obstacles[k]!, variant), x, y)
+    for (let k = 0; k < obstacleCount; k++) obstacleDepths[index * obstacleCount + k] = obstacleActs[index * obstacleCount + k] ? penetrationDepth(obstacleRegionOf(obstacles[k]!, variant), x, y) : 0
   }
   const refreshAll = () => {
     for (let index = 0; index < count; index++) refreshDepths(index)

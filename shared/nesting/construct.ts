@@ -1,6 +1,7 @@
 import ClipperLib from 'clipper-lib'
 import { boundsOf, translatePath, type IntPath, type IntShape } from './intGeometry.js'
 import { noFitRegion } from './noFitRegion.js'
+import { zoneAppliesToSheet } from './types.js'
 import type { Variant } from './variants.js'
 
 /** One copy of one item in the placement order. */
@@ -18,9 +19,10 @@ export interface PlacedPart {
   y: number
 }
 
-/** A fixed obstacle on every sheet (an excluded zone), as a variant-like shape at the origin. */
+/** A fixed obstacle (an excluded zone) on one sheet, or on every sheet without `sheet`, as a variant-like shape at the origin. */
 export interface Obstacle {
   key: string
+  sheet?: number
   shape: { outer: IntPath; holes: IntPath[] }
 }
 
@@ -209,6 +211,7 @@ function bestInWindow(
     for (const path of region.paths) clipper.AddPath(translatePath(path, part.x, part.y), ClipperLib.PolyType.ptClip, true)
   }
   for (const obstacle of obstacles) {
+    if (!zoneAppliesToSheet(obstacle, sheet)) continue
     const region = cache.forObstacle(obstacle, variant)
     if (outside(region, 0, 0)) continue
     for (const path of region.paths) clipper.AddPath(path, ClipperLib.PolyType.ptClip, true)

@@ -1,6 +1,6 @@
 import type { DesignGeometry } from '../schemas/designs.js'
 import type { CreateNestRunRequest, NestRunItem } from '../schemas/nesting.js'
-import type { NestItem, NestProblem, NestStock, RingPoints, Vec } from './types.js'
+import type { ExcludedZone, NestItem, NestProblem, NestStock, RingPoints, Vec } from './types.js'
 
 /** Andrew's monotone chain: the convex hull of a point set, counter-clockwise, O(n log n). */
 export function convexHull(points: Vec[]): RingPoints {
@@ -44,6 +44,11 @@ export function allowedAngles(item: Pick<NestRunItem, 'rotation' | 'rotationStep
     }
   }
   return item.grainLock ? angles.filter((angle) => angle === 0 || angle === 180) : angles
+}
+
+/** A request's excluded zones as the engine takes them: an outline alone acts on every sheet, `{ sheet, outline }` on that sheet. */
+export function nestZonesOf(zones: CreateNestRunRequest['excludedZones']): ExcludedZone[] {
+  return (zones ?? []).map((zone) => (Array.isArray(zone) ? { outline: zone } : { sheet: zone.sheet, outline: zone.outline }))
 }
 
 /** Item ids carry where a piece came from: `<designId>:<pieceIndex>`, with -1 for a design kept together. */
@@ -95,7 +100,7 @@ export function problemFromDesigns(request: CreateNestRunRequest, designs: Map<s
     stock,
     spacing: request.spacingMm ?? 2,
     margin: request.marginMm ?? 5,
-    excludedZones: request.excludedZones ?? [],
+    excludedZones: nestZonesOf(request.excludedZones),
     // Flattened curves carry many points and the cost of a no-fit region grows with the product of two shapes' point
     // counts. Shapes grow by the tolerance so no piece comes closer than the spacing; 0.1 mm is the value checked on
     // coarse integer grids (with 0.3 mm a long roll's coarser grid let keyring fobs come 0.5 mm too close).

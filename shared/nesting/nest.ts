@@ -31,6 +31,11 @@ function validate(problem: NestProblem) {
   if (stock.kind === 'sheets' && !(stock.width > 0 && stock.height > 0)) throw new NestInputError('The sheet width and height must be above 0')
   if (stock.kind === 'polygon' && (stock.outline.length < 3 || ringArea(stock.outline) <= 0)) throw new NestInputError('The stock outline has no area')
   if ((problem.spacing ?? 0) < 0 || (problem.margin ?? 0) < 0) throw new NestInputError('Spacing and margin cannot be negative')
+  for (const [index, zone] of (problem.excludedZones ?? []).entries()) {
+    if (zone.outline.length < 3) throw new NestInputError(`Excluded zone ${index + 1}: the outline needs at least 3 points`)
+    if (zone.outline.flat().some((value) => !Number.isFinite(value))) throw new NestInputError(`Excluded zone ${index + 1}: every coordinate must be a finite number`)
+    if (zone.sheet !== undefined && !(Number.isInteger(zone.sheet) && zone.sheet >= 0)) throw new NestInputError(`Excluded zone ${index + 1}: the sheet must be a whole number of 0 or more`)
+  }
 }
 
 interface Evaluation {
@@ -115,7 +120,15 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
       },
     }
   }
-  const obstacles: Obstacle[] = (problem.excludedZones ?? []).map((zone, index) => ({ key: `zone${index}`, shape: { outer: orient(toIntPath(zone, scale), true), holes: [] } }))
+  // A zone acts only on its own sheet (every sheet when it names none). A roll or a stock outline is sheet 0, so a
+  // zone naming another sheet never acts there and is left out. The key keeps the zone's index in the request: the
+  // no-fit regions are cached per key and moving variant.
+  const obstacles: Obstacle[] = (problem.excludedZones ?? []).flatMap((zone, index) =>
+    container.kind !== 'sheet' && zone.sheet !== undefined && zone.sheet !== 0 ? [] : [{ key: `zone${index}`, ...(zone.sheet !== undefined ? { sheet: zone.sheet } : {}), shape: { outer: orient(toIntPath(zone.outline, scale), true), holes: [] } }],
+  )
+  // Empty sheets past the last one a zone names are all alike; up to it, a new sheet may be blocked by its own zones,
+  // so the construction tries the empty sheets in turn until one past the last named sheet.
+  const lastZoneSheet = obstacles.reduce((last, obstacle) => Math.max(last, obstacle.sheet ?? -1), -1)
 
   // Largest first is the classic good start (Burke et al. 2006); ties keep the input order.
   const itemArea = problem.items.map((item) => ringArea(item.outline) - (item.holes ?? []).reduce((sum, hole) => sum + ringArea(hole), 0))
@@ -153,7 +166,7 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
         break
       }
       let chosen: Candidate | undefined
-      const sheetsToTry = container.kind === 'sheet' ? Math.min(sheetCount + 1, container.maxSheets) : 1
+      const sheetsToTry = container.kind === 'sheet' ? Math.min(Math.max(sheetCount, lastZoneSheet + 1) + 1, container.maxSheets) : 1
       for (let sheet = 0; sheet < sheetsToTry && !chosen; sheet++) {
         for (const variant of variantChoices(instance, preferences[instanceIndex]!, table)) {
           const candidate = bestPositionOnSheet(variant, sheet, placed, obstacles, container, cache, stripLength + variant.fitBounds.maxX + 2, undefined, filledUpTo, chosen?.score)
@@ -373,11 +386,15 @@ export function nest(problem: NestProblem, options: NestOptions = {}): NestResul
   // After a compression the settling pass rarely finds anything and costs seconds on a hundred pieces.
   const final = compresses ? best.evaluation : compact(best.evaluation)
   const fitsByItem = new Map<number, boolean>()
-  /** Whether the instance would fit on an empty stock: if so, only time (or the stop) kept it out. */
+  /**
+   * Whether the instance would fit on an empty stock: if so, only time (or the stop) kept it out. For sheets that is
+   * a sheet no zone names (only the zones of every sheet act there); a roll or a stock outline is sheet 0.
+   */
+  const emptySheet = container.kind === 'sheet' ? lastZoneSheet + 1 : 0
   const fitsEmptyStock = (instance: Instance) => {
     let fits = fitsByItem.get(instance.itemIndex)
     if (fits === undefined) {
-      fits = variants[instance.itemIndex]!.some((variant) => bestPositionOnSheet(variant, -1, [], obstacles, container, cache, container.minX + variant.fitBounds.maxX + 2) !== undefined)
+      fits = variants[instance.itemIndex]!.some((variant) => bestPositionOnSheet(variant, emptySheet, [], obstacles, container, cache, container.minX + variant.fitBounds.maxX + 2) !== undefined)
       fitsByItem.set(instance.itemIndex, fits)
     }
     return fits

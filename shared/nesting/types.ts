@@ -20,6 +20,15 @@ export type NestStock =
   | { kind: 'sheets'; width: number; height: number; maxSheets?: number }
   | { kind: 'polygon'; outline: RingPoints; holes?: RingPoints[] }
 
+/** An area of the stock that must stay clear: on one sheet (0-based), or on every sheet when `sheet` is left out. */
+export interface ExcludedZone {
+  outline: RingPoints
+  sheet?: number
+}
+
+/** Whether a zone keeps an area of `sheet` clear. A roll or a stock outline is sheet 0. */
+export const zoneAppliesToSheet = (zone: { sheet?: number }, sheet: number): boolean => zone.sheet === undefined || zone.sheet === sheet
+
 export interface NestProblem {
   items: NestItem[]
   stock: NestStock
@@ -27,8 +36,8 @@ export interface NestProblem {
   spacing?: number
   /** Clear distance kept from the stock's edges. */
   margin?: number
-  /** Areas of the stock that must stay clear (in stock coordinates). */
-  excludedZones?: RingPoints[]
+  /** Areas of the stock that must stay clear (in stock coordinates), each on one sheet or on all. */
+  excludedZones?: ExcludedZone[]
   /** Curves are simplified for the search within this distance (the shapes grow by it, so it is always safe). */
   simplifyTolerance?: number
 }

@@ -1,7 +1,7 @@
 import polygonClipping, { type Polygon } from 'polygon-clipping'
 import { boundingBox, signedArea } from '../geometry/polygon.js'
 import { transformRing } from './variants.js'
-import type { NestProblem, NestResult, Placement, RingPoints } from './types.js'
+import { zoneAppliesToSheet, type NestProblem, type NestResult, type Placement, type RingPoints } from './types.js'
 
 /**
  * An independent check of a layout, in full floating-point precision with a different boolean library
@@ -119,9 +119,11 @@ export function verifyLayout(problem: NestProblem, result: NestResult): VerifyRe
         if (gap < margin - linearSlack) problems.push(`${label} is ${gap} from the stock edge, closer than the margin ${margin}`)
       }
     }
-    for (const zone of problem.excludedZones ?? []) {
-      const overlap = areaOfPolygons(polygonClipping.intersection(polygonOf(placement), [zone] as Polygon))
-      if (overlap > tolerance * areaOfRing(placement.outline)) problems.push(`${label} covers an excluded zone (${overlap})`)
+    // A zone keeps only its own sheet clear (every sheet when it names none); a roll or a stock outline is sheet 0.
+    for (const [index, zone] of (problem.excludedZones ?? []).entries()) {
+      if (!zoneAppliesToSheet(zone, placement.sheet)) continue
+      const overlap = areaOfPolygons(polygonClipping.intersection(polygonOf(placement), [zone.outline] as Polygon))
+      if (overlap > tolerance * areaOfRing(placement.outline)) problems.push(`${label} covers excluded zone ${index + 1}${zone.sheet === undefined ? '' : ` of sheet ${zone.sheet}`} (${overlap})`)
     }
   }
 

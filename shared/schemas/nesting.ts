@@ -25,15 +25,48 @@ export const nestStockSchema = z.discriminatedUnion('kind', [
 ])
 export type NestStockInput = z.infer<typeof nestStockSchema>
 
-export const createNestRunRequestSchema = z.object({
-  items: z.array(nestRunItemSchema).min(1, { error: 'Add at least one design' }).max(100, { error: 'Use at most 100 designs' }),
-  stock: nestStockSchema,
-  spacingMm: z.number().min(0, { error: 'Spacing cannot be negative' }).max(100).default(2),
-  marginMm: z.number().min(0, { error: 'Margin cannot be negative' }).max(500).default(5),
-  excludedZones: z.array(z.array(point).min(3)).max(50).default([]),
-  timeBudgetSeconds: z.number().min(1, { error: 'Give the search at least 1 second' }).max(600, { error: 'At most 10 minutes' }).default(20),
-  seed: z.number().int().min(1).max(2 ** 31 - 1).optional(),
-})
+/** Sheets a run may use at most (nestStockSchema's maxSheets), so a zone names a sheet index below it. */
+const MAX_RUN_SHEETS = 500
+const zoneOutline = z.array(point).min(3, { error: 'An excluded zone needs at least 3 points' })
+/**
+ * An area of the stock that must stay clear. An outline alone keeps it clear on every sheet (the original form, kept
+ * for stored runs and files); `{ sheet, outline }` on that sheet only (0-based; a roll or a stock outline is sheet 0).
+ */
+export const nestExcludedZoneSchema = z.union(
+  [
+    zoneOutline,
+    z.object({
+      sheet: z
+        .number({ error: 'The zone’s sheet must be a number' })
+        .int({ error: 'The zone’s sheet must be a whole number' })
+        .min(0, { error: 'The zone’s sheet counts from 0' })
+        .max(MAX_RUN_SHEETS - 1, { error: `The zone’s sheet must be below ${MAX_RUN_SHEETS}` }),
+      outline: zoneOutline,
+    }),
+  ],
+  { error: 'An excluded zone is an outline of at least 3 points, or { sheet, outline }' },
+)
+export type NestExcludedZone = z.infer<typeof nestExcludedZoneSchema>
+
+export const createNestRunRequestSchema = z
+  .object({
+    items: z.array(nestRunItemSchema).min(1, { error: 'Add at least one design' }).max(100, { error: 'Use at most 100 designs' }),
+    stock: nestStockSchema,
+    spacingMm: z.number().min(0, { error: 'Spacing cannot be negative' }).max(100).default(2),
+    marginMm: z.number().min(0, { error: 'Margin cannot be negative' }).max(500).default(5),
+    excludedZones: z.array(nestExcludedZoneSchema).max(50, { error: 'Use at most 50 excluded zones' }).default([]),
+    timeBudgetSeconds: z.number().min(1, { error: 'Give the search at least 1 second' }).max(600, { error: 'At most 10 minutes' }).default(20),
+    seed: z.number().int().min(1).max(2 ** 31 - 1).optional(),
+  })
+  .superRefine((request, context) => {
+    // A zone on a sheet the run can never use would silently do nothing: more likely a mistake than meant.
+    const sheets = request.stock.kind === 'sheets' ? (request.stock.maxSheets ?? MAX_RUN_SHEETS) : 1
+    for (const [index, zone] of request.excludedZones.entries()) {
+      if (Array.isArray(zone) || zone.sheet < sheets) continue
+      const message = request.stock.kind === 'sheets' ? `The run uses at most ${sheets} sheets: the zone’s sheet must be below ${sheets}` : 'A roll or a stock outline is one sheet: the zone’s sheet must be 0'
+      context.addIssue({ code: 'custom', path: ['excludedZones', index, 'sheet'], message })
+    }
+  })
 export type CreateNestRunRequest = z.input<typeof createNestRunRequestSchema>
 
 export const nestRunStatuses = ['queued', 'running', 'succeeded', 'failed', 'cancelled'] as const

@@ -61,7 +61,7 @@ describe('sheets, margins, spacing and excluded zones', () => {
     stock: { kind: 'sheets', width: 210, height: 297 },
     margin: 10,
     spacing: 3,
-    excludedZones: [[[150, 0], [210, 0], [210, 60], [150, 60]]],
+    excludedZones: [{ outline: [[150, 0], [210, 0], [210, 60], [150, 60]] }],
   }
 
   it('keeps every piece inside the margin, apart by the spacing and off the excluded zone', () => {
