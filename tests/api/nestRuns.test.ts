@@ -143,6 +143,14 @@ describe('nest runs through the job queue', () => {
     expect(foreign.status).toBe(400)
     expect(foreign.body.error.fields).toHaveProperty(['body.items.0.designId'])
 
+    // A zone of sheet 1 on a roll (which is one lane, sheet 0) can never act: refused with the zone's sheet named.
+    const zoneOnRoll = await api()
+      .post(`/api/workspaces/${owner.workspace.id}/nest-runs`)
+      .set(bearer(owner.accessToken))
+      .send({ items: [{ designId: tagId, quantity: 1 }], stock: { kind: 'roll', widthMm: 305 }, excludedZones: [{ sheet: 1, outline: [[0, 0], [10, 0], [10, 10]] }] })
+    expect(zoneOnRoll.status).toBe(400)
+    expect(Object.keys(zoneOnRoll.body.error.fields).some((field) => /excludedZones\.0\.sheet$/.test(field))).toBe(true)
+
     const viewer = await addMember(owner, 'viewer')
     const list = await api().get(`/api/workspaces/${owner.workspace.id}/nest-runs`).set(bearer(viewer.accessToken))
     expect(list.status).toBe(200)
