@@ -37,3 +37,15 @@ export async function signInThroughForm(page: import('playwright-core').Page, ba
   await page.waitForURL(/\/w\/[^/]+$/)
 }
 
+
+/** Notifications, focus rings and hover say nothing about the page a screenshot is for. */
+export async function settleForScreenshot(page: import('playwright-core').Page): Promise<void> {
+  for (const dismiss of await page.locator('.q-notification button[aria-label="Dismiss"]').all()) await dismiss.click().catch(() => {})
+  // Notifications leave on their own within five seconds; a screenshot with one in it is still a screenshot.
+  await page.locator('.q-notification').first().waitFor({ state: 'detached', timeout: 6_000 }).catch(() => {})
+  await page.evaluate(() => {
+    ;(document.activeElement as HTMLElement | null)?.blur()
+    window.scrollTo(0, 0)
+  })
+  await page.mouse.move(0, 0)
+}

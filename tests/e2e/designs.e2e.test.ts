@@ -2,7 +2,7 @@ import path from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { baseUrl, signUp, type SignedUpUser } from '../api/helpers.js'
-import { artifactsDir, launchBrowser, signInThroughForm } from './browser.js'
+import { artifactsDir, launchBrowser, settleForScreenshot, signInThroughForm } from './browser.js'
 
 /**
  * A 40 mm ring: outer circle r = 20 mm, hole r = 5 mm, one path filled even-odd, in a 50 mm document.
@@ -21,16 +21,6 @@ const labelWithTextSvg = `<svg xmlns="http://www.w3.org/2000/svg" width="80mm" h
 
 const svgFile = (name: string, text: string) => ({ name, mimeType: 'image/svg+xml', buffer: Buffer.from(text, 'utf8') })
 
-/** Notifications and focus rings say nothing about the page a screenshot is for. */
-async function settleForScreenshot(page: Page): Promise<void> {
-  for (const dismiss of await page.locator('.q-notification button[aria-label="Dismiss"]').all()) await dismiss.click().catch(() => {})
-  await page.locator('.q-notification').first().waitFor({ state: 'detached' }).catch(() => {})
-  await page.evaluate(() => {
-    ;(document.activeElement as HTMLElement | null)?.blur()
-    window.scrollTo(0, 0)
-  })
-  await page.mouse.move(0, 0)
-}
 
 describe('design library in the browser', () => {
   let owner: SignedUpUser

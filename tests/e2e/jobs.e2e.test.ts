@@ -3,18 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { addMember, api, baseUrl, bearer, signUp, testPassword, type SignedUpUser } from '../api/helpers.js'
 import { cornerLayout, createBladeCutter, createJob, createMaterial, createStock, fitBlade, uploadSquare, workspaceUrl } from '../api/jobsFixtures.js'
-import { artifactsDir, launchBrowser, signInThroughForm } from './browser.js'
+import { artifactsDir, launchBrowser, settleForScreenshot, signInThroughForm } from './browser.js'
 
-/** Notifications, focus rings and hover say nothing about the page a screenshot is for. */
-async function settleForScreenshot(page: Page): Promise<void> {
-  for (const dismiss of await page.locator('.q-notification button[aria-label="Dismiss"]').all()) await dismiss.click().catch(() => {})
-  await page.locator('.q-notification').first().waitFor({ state: 'detached' }).catch(() => {})
-  await page.evaluate(() => {
-    ;(document.activeElement as HTMLElement | null)?.blur()
-    window.scrollTo(0, 0)
-  })
-  await page.mouse.move(0, 0)
-}
 
 // Worked example by hand: a 50 × 50 mm square cuts 200 mm per pass; 2 passes × 3 runs = 1 200 mm = 1.20 m of wear.
 // The maker's unit is mm, so the page shows metres.

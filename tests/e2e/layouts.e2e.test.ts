@@ -31,7 +31,7 @@ function percentFrom(text: string | null): number {
 /** Notifications, focus rings and the pointer say nothing about the page a screenshot is for. */
 async function settleForScreenshot(page: Page): Promise<void> {
   for (const dismiss of await page.locator('.q-notification button[aria-label="Dismiss"]').all()) await dismiss.click().catch(() => {})
-  await page.locator('.q-notification').first().waitFor({ state: 'detached' }).catch(() => {})
+  await page.locator('.q-notification').first().waitFor({ state: 'detached', timeout: 6_000 }).catch(() => {})
   // The side panel scrolled down to reach auto-arrange: the figures belong at the top of the picture.
   await page.evaluate(() => document.querySelector('.layout-editor__panel')?.scrollTo(0, 0))
   await page.mouse.move(1, 1)

@@ -3,18 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { addMember, baseUrl, signUp, testPassword } from '../api/helpers.js'
 import { solidPng } from '../api/imageFixtures.js'
-import { artifactsDir, launchBrowser, signInThroughForm } from './browser.js'
+import { artifactsDir, launchBrowser, settleForScreenshot, signInThroughForm } from './browser.js'
 
-/** Notifications, focus rings and hover say nothing about the page a screenshot is for. */
-async function settleForScreenshot(page: Page): Promise<void> {
-  for (const dismiss of await page.locator('.q-notification button[aria-label="Dismiss"]').all()) await dismiss.click().catch(() => {})
-  await page.locator('.q-notification').first().waitFor({ state: 'detached' }).catch(() => {})
-  await page.evaluate(() => {
-    ;(document.activeElement as HTMLElement | null)?.blur()
-    window.scrollTo(0, 0)
-  })
-  await page.mouse.move(0, 0)
-}
 
 const cardstock = 'Cardstock, 80 lb cover'
 

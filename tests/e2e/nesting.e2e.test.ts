@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { uploadDesignsResponseSchema } from '../../shared/schemas/designs.js'
 import { addMember, api, baseUrl, bearer, signUp, testPassword, type SignedUpUser } from '../api/helpers.js'
-import { artifactsDir, launchBrowser, signInThroughForm } from './browser.js'
+import { artifactsDir, launchBrowser, settleForScreenshot, signInThroughForm } from './browser.js'
 
 /**
  * A 40 mm × 25 mm label with 4 mm corner radii, one piece, in a 50 × 35 mm document. Its area is
@@ -18,16 +18,6 @@ const labelSvg = `<?xml version="1.0" encoding="UTF-8"?>
 /** ISO 216: an A4 sheet is 210 mm × 297 mm. */
 const A4_AREA_MM2 = 210 * 297
 
-/** Notifications, focus rings and the pointer say nothing about the page a screenshot is for. */
-async function settleForScreenshot(page: Page): Promise<void> {
-  for (const dismiss of await page.locator('.q-notification button[aria-label="Dismiss"]').all()) await dismiss.click().catch(() => {})
-  await page.locator('.q-notification').first().waitFor({ state: 'detached' }).catch(() => {})
-  await page.evaluate(() => {
-    ;(document.activeElement as HTMLElement | null)?.blur()
-    window.scrollTo(0, 0)
-  })
-  await page.mouse.move(0, 0)
-}
 
 /** "18.9 %" → 18.9 */
 function percentFrom(text: string | null): number {
