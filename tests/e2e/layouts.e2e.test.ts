@@ -193,13 +193,16 @@ describe('layout editor in the browser', () => {
   }, 120_000)
 
   it('keeps unsaved changes of a closed tab and re-applies them over a newer saved version after a refused save', async () => {
-    // Arrange: an unsaved change (a nudge of the strip) in the editor. The export menu of the last test must be
-    // gone first: a closing menu hands the focus back to its button, which would take it from the canvas.
-    await page.locator('.q-menu').waitFor({ state: 'detached' })
+    // Arrange: the editor afresh (the last test ended in the Export menu, and a closing menu hands the focus back to
+    // its button some time after it has gone, which took the keys below away from the canvas), then an unsaved change:
+    // a nudge of the strip.
+    await page.reload()
+    await page.getByTestId('layout-utilisation').waitFor()
     await page.getByTestId('layout-canvas').focus()
     expect(await page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).toBe('layout-canvas')
     await page.keyboard.press('Tab')
     await page.keyboard.press('Tab')
+    await page.getByTestId('layout-selection-frame').waitFor()
     await page.keyboard.press('Shift+ArrowDown')
     await expect.poll(() => page.getByTestId('layout-save-state').getAttribute('data-state')).toBe('unsaved')
 
