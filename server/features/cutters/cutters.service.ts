@@ -66,16 +66,21 @@ function toCutter(row: repo.CutterRow, currentBlade: CurrentBlade | null, lastDo
   }
 }
 
-async function toCutters(db: DatabaseOrTransaction, workspaceId: string, rows: repo.CutterRow[]): Promise<Cutter[]> {
-  const ids = rows.map((row) => row.id)
-  const [current, lastCare] = await Promise.all([currentBladesByCutter(db, workspaceId, ids), repo.lastCareOf(db, ids)])
+/** When each kind of care was last done, per cutter (cutter id → kind → date). */
+export async function lastCareByCutter(db: DatabaseOrTransaction, cutterIds: string[]): Promise<Map<string, Map<string, Date>>> {
   const lastByCutter = new Map<string, Map<string, Date>>()
-  for (const entry of lastCare) {
+  for (const entry of await repo.lastCareOf(db, cutterIds)) {
     if (!entry.lastDoneAt) continue
     const map = lastByCutter.get(entry.cutterId) ?? new Map<string, Date>()
     map.set(entry.kind, new Date(entry.lastDoneAt))
     lastByCutter.set(entry.cutterId, map)
   }
+  return lastByCutter
+}
+
+async function toCutters(db: DatabaseOrTransaction, workspaceId: string, rows: repo.CutterRow[]): Promise<Cutter[]> {
+  const ids = rows.map((row) => row.id)
+  const [current, lastByCutter] = await Promise.all([currentBladesByCutter(db, workspaceId, ids), lastCareByCutter(db, ids)])
   return rows.map((row) => toCutter(row, current.get(row.id) ?? null, lastByCutter.get(row.id) ?? new Map()))
 }
 

@@ -1,8 +1,9 @@
-import { and, desc, eq, gte, inArray, isNull, sql } from 'drizzle-orm'
+import { and, desc, eq, gte, isNull, sql } from 'drizzle-orm'
 import type { Dashboard } from '../../../shared/schemas/jobs.js'
 import type { AppContext } from '../../context.js'
-import { careEvents, cutJobs, cutters, materials, testCuts, users } from '../../db/schema/index.js'
+import { cutJobs, cutters, materials, testCuts, users } from '../../db/schema/index.js'
 import { currentBladesByCutter } from '../cutters/bladeWear.js'
+import { careDueOf, lastCareByCutter } from '../cutters/cutters.service.js'
 import * as jobsRepo from '../jobs/jobs.repo.js'
 import { dayFromToday, summariesOf } from '../jobs/jobs.service.js'
 
@@ -65,32 +66,13 @@ export async function getDashboard(context: AppContext, workspaceId: string): Pr
     .orderBy(desc(testCuts.createdAt))
     .limit(5)
 
-  // Care reminders: last time each kind was done on each cutter; never done counts from the cutter's creation.
+  // Care reminders, as the cutters page computes them; never done counts from the cutter's creation.
   const withReminders = activeCutters.filter((cutter) => cutter.careReminders.length > 0)
-  const lastCare =
-    withReminders.length === 0
-      ? []
-      : await db
-          .select({ cutterId: careEvents.cutterId, kind: careEvents.kind, lastDoneAt: sql<string>`max(${careEvents.doneAt})` })
-          .from(careEvents)
-          .where(and(eq(careEvents.workspaceId, workspaceId), inArray(careEvents.cutterId, withReminders.map((cutter) => cutter.id))))
-          .groupBy(careEvents.cutterId, careEvents.kind)
-  const lastOf = new Map(lastCare.map((row) => [`${row.cutterId}|${row.kind}`, new Date(row.lastDoneAt)]))
+  const lastByCutter = await lastCareByCutter(db, withReminders.map((cutter) => cutter.id))
   const horizon = now.getTime() + dueSoonDays * dayMs
   const careReminders = withReminders
     .flatMap((cutter) =>
-      cutter.careReminders.map((reminder) => {
-        const last = lastOf.get(`${cutter.id}|${reminder.kind}`) ?? null
-        const dueAt = new Date((last ?? cutter.createdAt).getTime() + reminder.intervalDays * dayMs)
-        return {
-          cutter: { id: cutter.id, name: cutter.name },
-          kind: reminder.kind,
-          intervalDays: reminder.intervalDays,
-          lastDoneAt: last?.toISOString() ?? null,
-          dueAt: dueAt.toISOString(),
-          overdue: dueAt.getTime() <= now.getTime(),
-        }
-      }),
+      careDueOf(cutter.careReminders, lastByCutter.get(cutter.id) ?? new Map(), cutter.createdAt, now).map((due) => ({ cutter: { id: cutter.id, name: cutter.name }, ...due })),
     )
     .filter((reminder) => new Date(reminder.dueAt).getTime() <= horizon)
     .sort((a, b) => a.dueAt.localeCompare(b.dueAt))
