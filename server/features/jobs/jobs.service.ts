@@ -118,7 +118,7 @@ export async function listJobs(context: AppContext, workspaceId: string, query: 
 // Usage: what one run of the saved layout uses, from its stored figures and the cut plan.
 
 /** Passes come from the material's cut recipe for the cutter's tool (pens draw once); 1 without a recipe. */
-async function passesFor(db: DatabaseOrTransaction, workspaceId: string, materialId: string | null, toolKind: 'blade' | 'pen' | 'laser' | null): Promise<number> {
+export async function passesFor(db: DatabaseOrTransaction, workspaceId: string, materialId: string | null, toolKind: 'blade' | 'pen' | 'laser' | null): Promise<number> {
   if (!materialId || toolKind === 'pen') return 1
   return (await repo.recipePasses(db, workspaceId, materialId, toolKind === 'laser' ? 'laser' : 'blade')) ?? 1
 }

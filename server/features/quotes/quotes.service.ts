@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto'
 import { planLayout } from '../../../shared/cutplan/plan.js'
-import { cutterProfileSchema, defaultCutPlanOptions, defaultCutterProfile, type CutterProfile } from '../../../shared/cutplan/profile.js'
+import { defaultCutPlanOptions, defaultCutterProfile } from '../../../shared/cutplan/profile.js'
 import { customerLines, draftQuoteLines, priceQuote, type JobFactsForQuote, type QuoteLineInput } from '../../../shared/quotes/arithmetic.js'
 import { formatMinor, toMinor } from '../../../shared/quotes/money.js'
 import type {
@@ -17,7 +17,8 @@ import type {
 } from '../../../shared/schemas/quotes.js'
 import type { z } from 'zod'
 import type { AppContext } from '../../context.js'
-import { recipePasses } from '../jobs/jobs.repo.js'
+import { profileOfCutter } from '../cutters/cutterProfile.js'
+import { passesFor } from '../jobs/jobs.service.js'
 import type { DatabaseOrTransaction } from '../../db/client.js'
 import type { QuoteSourceFacts } from '../../db/schema/quotes.js'
 import { AppError, conflict, invalidField, notFound } from '../../errors.js'
@@ -133,13 +134,6 @@ export async function listQuotes(context: AppContext, workspaceId: string, filte
   return { items: rows.map((row) => summaryOf(row.quote, row.totalMinor)), total, page: filter.page, pageSize: filter.pageSize }
 }
 
-/** The cutter's own profile when the job names one, else the default desktop cutter. */
-function profileOf(cutter: { cutSpeedMmS: number; travelSpeedMmS: number; accelerationMmS2: number; liftLowerS: number; cornerAngleDeg: number; origin: string; swapAxes: boolean; name: string } | null): CutterProfile {
-  if (!cutter) return defaultCutterProfile
-  const parsed = cutterProfileSchema.safeParse({ ...cutter, name: cutter.name.slice(0, 80) || defaultCutterProfile.name })
-  return parsed.success ? parsed.data : defaultCutterProfile
-}
-
 /** What a job uses per run of its layout: sheets or roll length, pieces, and the cut-plan time with its cutter. */
 async function jobFacts(context: AppContext, workspaceId: string, jobId: string, currency: string): Promise<{ facts: JobFactsForQuote; label: string; title: string; customerName: string }> {
   const found = await repo.findJobForQuote(context.db, workspaceId, jobId)
@@ -150,8 +144,8 @@ async function jobFacts(context: AppContext, workspaceId: string, jobId: string,
     const ids = [...new Set(layout.placements.map((placement) => placement.designId))]
     const designs = new Map((await findDesignsForCutPlan(context.db, workspaceId, ids)).map((row) => [row.id, { name: row.name, geometry: row.geometry }]))
     // Passes as the job will cut them: the material's recipe for the cutter's tool (a pen draws once).
-    const passes = job.materialId && cutter?.toolKind !== 'pen' ? ((await recipePasses(context.db, workspaceId, job.materialId, cutter?.toolKind === 'laser' ? 'laser' : 'blade')) ?? 1) : 1
-    const plan = planLayout({ name: layout.name, stock: layout.stock, placements: layout.placements, options: layout.options }, designs, profileOf(cutter), { ...defaultCutPlanOptions, passes })
+    const passes = await passesFor(context.db, workspaceId, job.materialId, cutter?.toolKind ?? null)
+    const plan = planLayout({ name: layout.name, stock: layout.stock, placements: layout.placements, options: layout.options }, designs, cutter ? profileOfCutter(cutter) : defaultCutterProfile, { ...defaultCutPlanOptions, passes })
     cutTimePerRunS = plan.totals.totalTimeS
   }
   const layoutKind = layout?.stock.kind === 'roll' ? 'roll' : 'sheet'
